@@ -1,0 +1,33 @@
+import type { Transporter } from 'nodemailer'
+import nodemailer from 'nodemailer'
+
+export interface OutgoingMail {
+  to: string
+  subject: string
+  text: string
+  html?: string
+}
+
+export interface Mailer {
+  send: (mail: OutgoingMail) => Promise<void>
+  close: () => void
+}
+
+/**
+ * Sends over plain SMTP to the configured host. In this product that host is always the local
+ * fake on loopback (see fake-smtp.ts), so nothing leaves the machine.
+ */
+export function createMailer(options: { host: string, port: number, from: string }): Mailer {
+  const transport: Transporter = nodemailer.createTransport({
+    host: options.host,
+    port: options.port,
+    secure: false,
+    ignoreTLS: true,
+  })
+  return {
+    async send(mail) {
+      await transport.sendMail({ from: options.from, ...mail })
+    },
+    close: () => transport.close(),
+  }
+}

@@ -1,0 +1,14 @@
+import { z } from 'zod'
+
+/** A message caught by the local fake SMTP server (development and tests only). */
+export const StoredMailSchema = z.object({
+  id: z.string(),
+  receivedAt: z.string(),
+  from: z.string(),
+  to: z.array(z.string()),
+  subject: z.string(),
+  text: z.string(),
+  html: z.string().optional(),
+})
+
+export type StoredMail = z.infer<typeof StoredMailSchema>

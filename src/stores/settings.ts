@@ -1,0 +1,42 @@
+import { defineStore } from 'pinia'
+import { ref, watch } from 'vue'
+
+export type ThemeChoice = 'system' | 'light' | 'dark'
+
+const storageKey = 'lixivia.settings'
+
+interface StoredSettings { theme: ThemeChoice }
+
+function load(): StoredSettings {
+  try {
+    const stored = JSON.parse(localStorage.getItem(storageKey) ?? '{}') as Partial<StoredSettings>
+    return { theme: stored.theme === 'light' || stored.theme === 'dark' ? stored.theme : 'system' }
+  }
+  catch {
+    return { theme: 'system' }
+  }
+}
+
+/** Display preferences of this phone (never tokens or team data, which live elsewhere). */
+export const useSettingsStore = defineStore('settings', () => {
+  const theme = ref<ThemeChoice>(load().theme)
+  const darkQuery = typeof window.matchMedia === 'function' ? window.matchMedia('(prefers-color-scheme: dark)') : undefined
+
+  function applyTheme(): void {
+    const dark = theme.value === 'dark' || (theme.value === 'system' && darkQuery?.matches === true)
+    document.documentElement.classList.toggle('ion-palette-dark', dark)
+  }
+
+  function reset(): void {
+    theme.value = 'system'
+    localStorage.removeItem(storageKey)
+  }
+
+  darkQuery?.addEventListener('change', applyTheme)
+  watch(theme, (value) => {
+    localStorage.setItem(storageKey, JSON.stringify({ theme: value } satisfies StoredSettings))
+    applyTheme()
+  })
+
+  return { theme, applyTheme, reset }
+})

@@ -1,0 +1,37 @@
+import type { TestDatabase } from './helpers'
+import { sql } from 'drizzle-orm'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { memberships, users } from '../../server/db/schema'
+import { demoAccounts, demoPassword, seedDemo } from '../../server/db/seed'
+import { verifyPassword } from '../../server/services/passwords'
+import { createTestDatabase } from './helpers'
+
+let database: TestDatabase
+beforeAll(async () => {
+  database = await createTestDatabase()
+})
+afterAll(async () => {
+  await database.drop()
+})
+
+describe('seedDemo', () => {
+  it('writes the demo team with one account per role into an empty database', async () => {
+    expect(await seedDemo(database.db)).toBe(true)
+    const rows = await database.db.select({ email: users.email, role: memberships.role }).from(users).innerJoin(memberships, sql`${memberships.userId} = ${users.id}`)
+    expect(rows.map(row => row.role).sort()).toEqual(['lead', 'member', 'owner', 'viewer'])
+    expect(rows.map(row => row.email).sort()).toEqual(demoAccounts.map(account => account.email).sort())
+  })
+
+  it('stores argon2id hashes that verify the printed password', async () => {
+    const [user] = await database.db.select().from(users).limit(1)
+    expect(user?.passwordHash).toMatch(/^\$argon2id\$v=19\$m=19456,t=2,p=1\$/)
+    expect(await verifyPassword(user!.passwordHash, demoPassword)).toBe(true)
+    expect(await verifyPassword(user!.passwordHash, 'not the password')).toBe(false)
+  })
+
+  it('writes nothing into a database that has data', async () => {
+    expect(await seedDemo(database.db)).toBe(false)
+    const [row] = await database.db.select({ count: sql<number>`count(*)` }).from(users)
+    expect(Number(row?.count)).toBe(demoAccounts.length)
+  })
+})
