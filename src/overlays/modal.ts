@@ -12,6 +12,8 @@ export function useModal(): (component: Component, props?: Record<string, unknow
   return async (component, props = {}) => {
     defineCustomElement()
     const host = document.createElement('div')
+    // Ionic lays out a modal's header and content only inside an .ion-page element.
+    host.classList.add('ion-page')
     const vnode = createVNode(component, props)
     vnode.appContext = appContext
     render(vnode, host)

@@ -29,12 +29,15 @@ export const useSettingsStore = defineStore('settings', () => {
 
   function reset(): void {
     theme.value = 'system'
-    localStorage.removeItem(storageKey)
   }
 
   darkQuery?.addEventListener('change', applyTheme)
   watch(theme, (value) => {
-    localStorage.setItem(storageKey, JSON.stringify({ theme: value } satisfies StoredSettings))
+    // Following the phone is the default, so it is stored as nothing at all.
+    if (value === 'system')
+      localStorage.removeItem(storageKey)
+    else
+      localStorage.setItem(storageKey, JSON.stringify({ theme: value } satisfies StoredSettings))
     applyTheme()
   })
 
