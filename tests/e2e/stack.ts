@@ -21,7 +21,8 @@ export interface StackProcess {
 
 /** Runs exactly what `npm start` runs, on the given ports and data folder. */
 export function runStart(settings: StackSettings): { child: ChildProcess, output: () => string, exited: Promise<number | null> } {
-  const env = { ...process.env, NODE_ENV: 'development', LOG_LEVEL: 'warn', ...Object.fromEntries(Object.entries(settings).map(([key, value]) => [key, String(value)])) }
+  const env: NodeJS.ProcessEnv = { ...process.env, NODE_ENV: 'development', LOG_LEVEL: 'warn', ...Object.fromEntries(Object.entries(settings).map(([key, value]) => [key, String(value)])) }
+  // The product under test always runs its own private MariaDB.
   delete env.DATABASE_URL
   const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/start.ts'], { cwd: repoRoot, env, stdio: ['ignore', 'pipe', 'pipe'] })
   let output = ''
