@@ -1,0 +1,107 @@
+import { BrewingInputError, requireFinite, requirePositive, requireTdsPercent } from './errors'
+
+export interface Range { min: number, max: number }
+
+/** A target zone on the brewing control chart: a strength range × an extraction range. */
+export interface Zone {
+  id: string
+  name: string
+  tdsPercent: Range
+  yieldPercent: Range
+  /** Where the numbers come from, shown beside the chart. */
+  source: string
+}
+
+/** Published drip standards, and an espresso zone from common practice. */
+export const zonePresets: readonly Zone[] = [
+  { id: 'us-drip', name: 'US drip standard', tdsPercent: { min: 1.15, max: 1.35 }, yieldPercent: { min: 18, max: 22 }, source: 'SCAA brewing standard (2015)' },
+  { id: 'european-drip', name: 'European drip standard', tdsPercent: { min: 1.2, max: 1.45 }, yieldPercent: { min: 18, max: 22 }, source: 'European brewing standard (secondary sources)' },
+  { id: 'nordic-drip', name: 'Nordic drip standard', tdsPercent: { min: 1.3, max: 1.55 }, yieldPercent: { min: 18, max: 22 }, source: 'Norwegian brewing standard (sources give 1.50 or 1.55 as the upper strength)' },
+  { id: 'espresso', name: 'Espresso', tdsPercent: { min: 8, max: 12 }, yieldPercent: { min: 18, max: 22 }, source: 'Common practice; no published standard' },
+]
+
+/** A zone preset by id, or undefined. */
+export const findZonePreset = (id: string): Zone | undefined => zonePresets.find(zone => zone.id === id)
+
+function checkRange(range: Range | undefined, field: string, label: string, upper: number): Range {
+  if (!range)
+    throw new BrewingInputError(field, `${label} needs a lower and an upper limit.`)
+  requirePositive(range.min, `${field}.min`, `The lower ${label.toLowerCase()} limit`)
+  requireFinite(range.max, `${field}.max`, `The upper ${label.toLowerCase()} limit`)
+  if (range.max <= range.min)
+    throw new BrewingInputError(`${field}.max`, `The upper ${label.toLowerCase()} limit must be above the lower one.`)
+  if (range.max >= upper)
+    throw new BrewingInputError(`${field}.max`, `The upper ${label.toLowerCase()} limit must be below ${upper} %.`)
+  return { min: range.min, max: range.max }
+}
+
+/** A team's own zone, checked. */
+export function defineZone(input: { id: string, name: string, tdsPercent: Range, yieldPercent: Range, source?: string }): Zone {
+  if (!input.name?.trim())
+    throw new BrewingInputError('name', 'Give the zone a name.')
+  return {
+    id: input.id,
+    name: input.name.trim(),
+    tdsPercent: checkRange(input.tdsPercent, 'tdsPercent', 'Strength', 100),
+    yieldPercent: checkRange(input.yieldPercent, 'yieldPercent', 'Extraction', 100),
+    source: input.source?.trim() || 'Team zone',
+  }
+}
+
+export type Position = 'low' | 'in' | 'high'
+
+export interface ZoneVerdict {
+  strength: Position
+  extraction: Position
+  inZone: boolean
+  /** A few words for the result panel, e.g. "Under-extracted and weak". */
+  headline: string
+  /** What to change, extraction first (it moves strength too), then the ratio. */
+  adjustments: string[]
+  /**
+   * Grams of beverage per gram of coffee now, and the one that would land in the middle of the
+   * zone's strength at the current extraction (strength = EY / ratio).
+   */
+  beverageRatio: { current: number, target: number }
+}
+
+const place = (value: number, range: Range): Position => (value < range.min ? 'low' : value > range.max ? 'high' : 'in')
+
+const headlines: Record<Position, Record<Position, string>> = {
+  low: { low: 'Under-extracted and weak', in: 'Under-extracted', high: 'Under-extracted and strong' },
+  in: { low: 'Weak', in: 'In the zone', high: 'Strong' },
+  high: { low: 'Over-extracted and weak', in: 'Over-extracted', high: 'Over-extracted and strong' },
+}
+
+/**
+ * Where a brew sits against a zone and what to change next. Extraction is moved by grind, contact
+ * time and temperature; strength at a given extraction is moved by the brew ratio.
+ * @param zone - the target zone
+ * @param measured - the brew's results
+ * @param measured.tdsPercent - strength, %TDS
+ * @param measured.yieldPercent - extraction yield, %
+ */
+export function zoneVerdict(zone: Zone, measured: { tdsPercent: number, yieldPercent: number }): ZoneVerdict {
+  const tds = requireTdsPercent(measured.tdsPercent)
+  const ey = requirePositive(measured.yieldPercent, 'yieldPercent', 'The extraction yield')
+  const strength = place(tds, zone.tdsPercent)
+  const extraction = place(ey, zone.yieldPercent)
+  const targetTds = (zone.tdsPercent.min + zone.tdsPercent.max) / 2
+  const beverageRatio = { current: ey / tds, target: ey / targetTds }
+
+  const adjustments: string[] = []
+  if (extraction === 'low')
+    adjustments.push('Extract more: grind finer, lengthen the contact time, or brew a little hotter.')
+  else if (extraction === 'high')
+    adjustments.push('Extract less: grind coarser, shorten the contact time, or brew a little cooler.')
+  if (strength === 'low')
+    adjustments.push(`Make it stronger with less water per gram of coffee: about ${beverageRatio.target.toFixed(1)} g of beverage per gram instead of ${beverageRatio.current.toFixed(1)}.`)
+  else if (strength === 'high')
+    adjustments.push(`Make it weaker with more water per gram of coffee: about ${beverageRatio.target.toFixed(1)} g of beverage per gram instead of ${beverageRatio.current.toFixed(1)}, or add water after brewing.`)
+  if (adjustments.length === 0)
+    adjustments.push('Keep this recipe: strength and extraction are both inside the zone.')
+  else if (extraction !== 'in' && strength !== 'in')
+    adjustments.push('Change the extraction first and measure again: it moves the strength too.')
+
+  return { strength, extraction, inZone: strength === 'in' && extraction === 'in', headline: headlines[extraction][strength], adjustments, beverageRatio }
+}

@@ -1,0 +1,89 @@
+import { describe, expect, it } from 'vitest'
+import { defineZone, findZonePreset, zonePresets, zoneVerdict } from '../../shared/brewing'
+
+describe('zonePresets', () => {
+  it.each([
+    // SCAA brewing standard (2015): TDS 1.15–1.35 %, EY 18–22 %.
+    ['us-drip', 1.15, 1.35],
+    // European brewing standard (secondary sources): TDS 1.20–1.45 %, EY 18–22 %.
+    ['european-drip', 1.2, 1.45],
+    // Norwegian brewing standard: TDS 1.30–1.55 % (sources give 1.50 or 1.55 as the top), EY 18–22 %.
+    ['nordic-drip', 1.3, 1.55],
+  ])('%s covers %f–%f %%TDS and 18–22 %% EY', (id, min, max) => {
+    const zone = findZonePreset(id)!
+    expect(zone.tdsPercent).toEqual({ min, max })
+    expect(zone.yieldPercent).toEqual({ min: 18, max: 22 })
+    expect(zone.source).not.toBe('')
+  })
+
+  it('has an espresso zone marked as common practice', () => {
+    expect(findZonePreset('espresso')!.source).toMatch(/common practice/i)
+  })
+
+  it('contains the chart\'s historical ideal of about 1.25 %TDS and 20 % EY (Lockhart 1957) in the US zone', () => {
+    expect(zoneVerdict(findZonePreset('us-drip')!, { tdsPercent: 1.25, yieldPercent: 20 }).inZone).toBe(true)
+  })
+
+  it('has unique ids', () => {
+    expect(new Set(zonePresets.map(zone => zone.id)).size).toBe(zonePresets.length)
+  })
+})
+
+describe('zoneVerdict', () => {
+  const us = findZonePreset('us-drip')!
+
+  it('keeps a brew inside the zone as it is', () => {
+    const verdict = zoneVerdict(us, { tdsPercent: 1.3, yieldPercent: 20.5 })
+    expect(verdict).toMatchObject({ strength: 'in', extraction: 'in', inZone: true, headline: 'In the zone' })
+    expect(verdict.adjustments).toEqual(['Keep this recipe: strength and extraction are both inside the zone.'])
+  })
+
+  it('tells an under-extracted brew to grind finer, brew longer or hotter', () => {
+    const verdict = zoneVerdict(us, { tdsPercent: 1.25, yieldPercent: 16.8 })
+    expect(verdict).toMatchObject({ strength: 'in', extraction: 'low', headline: 'Under-extracted' })
+    expect(verdict.adjustments[0]).toMatch(/grind finer.*contact time.*hotter/)
+  })
+
+  it('tells an over-extracted brew to grind coarser, brew shorter or cooler', () => {
+    const verdict = zoneVerdict(us, { tdsPercent: 1.3, yieldPercent: 23.4 })
+    expect(verdict.extraction).toBe('high')
+    expect(verdict.adjustments[0]).toMatch(/grind coarser.*shorten.*cooler/)
+  })
+
+  it('moves strength at a given extraction with the ratio, and gives the number', () => {
+    // At 20 % EY a 1.25 %TDS target needs 20 / 1.25 = 16.0 g of beverage per gram of coffee.
+    const verdict = zoneVerdict(us, { tdsPercent: 1.05, yieldPercent: 20 })
+    expect(verdict).toMatchObject({ strength: 'low', extraction: 'in', headline: 'Weak' })
+    expect(verdict.beverageRatio.target).toBeCloseTo(16, 10)
+    expect(verdict.beverageRatio.current).toBeCloseTo(19.05, 2)
+    expect(verdict.adjustments[0]).toContain('16.0 g of beverage per gram instead of 19.0')
+  })
+
+  it('tells a strong brew to use more water per gram of coffee', () => {
+    const verdict = zoneVerdict(us, { tdsPercent: 1.5, yieldPercent: 20 })
+    expect(verdict.strength).toBe('high')
+    expect(verdict.adjustments[0]).toContain('more water per gram')
+  })
+
+  it('says to fix extraction first when both axes are off', () => {
+    const verdict = zoneVerdict(us, { tdsPercent: 1.5, yieldPercent: 24 })
+    expect(verdict.headline).toBe('Over-extracted and strong')
+    expect(verdict.adjustments.at(-1)).toContain('Change the extraction first')
+  })
+
+  it('counts the zone\'s edges as inside', () => {
+    expect(zoneVerdict(us, { tdsPercent: 1.15, yieldPercent: 22 }).inZone).toBe(true)
+  })
+})
+
+describe('defineZone', () => {
+  it('accepts a team\'s own zone', () => {
+    const zone = defineZone({ id: 'saltmarsh-filter', name: ' Saltmarsh filter ', tdsPercent: { min: 1.28, max: 1.42 }, yieldPercent: { min: 19, max: 21.5 } })
+    expect(zone).toMatchObject({ name: 'Saltmarsh filter', source: 'Team zone' })
+  })
+
+  it('refuses an upside-down range, naming the limit', () => {
+    expect(() => defineZone({ id: 'x', name: 'X', tdsPercent: { min: 1.4, max: 1.2 }, yieldPercent: { min: 18, max: 22 } }))
+      .toThrow(expect.objectContaining({ field: 'tdsPercent.max' }))
+  })
+})
