@@ -3,14 +3,24 @@ import type { Logger } from 'pino'
 import type { Database } from './db/client'
 import type { Mailbox } from './mail/mailbox'
 import type { Mailer } from './mail/mailer'
+import type { RateLimits } from './middleware/rate-limits'
 import { existsSync } from 'node:fs'
 import path from 'node:path'
+import cookieParser from 'cookie-parser'
 import express from 'express'
 import helmet from 'helmet'
 import { pinoHttp } from 'pino-http'
+import { createAccessTokens } from './auth/tokens'
+import { requireAuth } from './middleware/auth'
 import { apiNotFound, errorHandler } from './middleware/errorHandler'
+import { defaultRateLimits, limiter } from './middleware/rate-limits'
+import { authRoutes } from './routes/auth.routes'
 import { devMailRoutes } from './routes/dev-mail.routes'
 import { healthRoutes } from './routes/health.routes'
+import { teamRoutes } from './routes/teams.routes'
+import { createAuthService } from './services/auth.service'
+import { createInvitationsService } from './services/invitations.service'
+import { createTeamsService } from './services/teams.service'
 
 export interface AppDeps {
   database: Database
@@ -19,6 +29,11 @@ export interface AppDeps {
   version: string
   /** Request body limit for JSON, e.g. `1mb`. */
   bodyLimit: string
+  /** Base64url signing secret of at least 32 bytes for access tokens. */
+  jwtSecret: string
+  /** Where people open the app; e-mailed links point here. */
+  publicUrl: string
+  rateLimits?: Partial<RateLimits>
   /** The fake SMTP server's mailbox; when given, `/api/v1/dev/mail` lists it (never in production). */
   devMailbox?: Mailbox
   /** The built client (`dist/`); when given, the app is served beside the API. */
@@ -73,11 +88,23 @@ export function createApp(deps: AppDeps): Express {
     },
   }))
   app.use(express.json({ limit: deps.bodyLimit }))
+  app.use(cookieParser())
+
+  const { db } = deps.database
+  const tokens = createAccessTokens(deps.jwtSecret)
+  const limits = { ...defaultRateLimits, ...deps.rateLimits }
+  const teams = createTeamsService(db)
+  const invitations = createInvitationsService({ db, teams, mailer: deps.mailer, publicUrl: deps.publicUrl })
+  const auth = createAuthService({ db, tokens, mailer: deps.mailer, publicUrl: deps.publicUrl })
 
   const api = express.Router()
   api.use(healthRoutes({ pool: deps.database.pool, version: deps.version }))
   if (deps.devMailbox)
     api.use(devMailRoutes(deps.devMailbox))
+  api.use(authRoutes(auth, { register: limiter(limits.register), login: limiter(limits.login), reset: limiter(limits.reset) }))
+  // Signed-in routes; scoped by path so that an unknown route still answers 404, not 401.
+  api.use(['/me', '/teams', '/invitations'], requireAuth(tokens))
+  api.use(teamRoutes(teams, invitations))
   app.use('/api/v1', api)
   app.use('/api', apiNotFound)
 

@@ -14,9 +14,13 @@ export const EnvSchema = z.object({
   DATA_DIR: z.string().min(1).default('.data'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   BODY_LIMIT: z.string().regex(/^\d+(?:b|kb|mb)$/i, 'must look like 512kb or 2mb').default('1mb'),
+  JWT_SECRET: z.string({ error: 'is required: at least 32 random bytes, base64url-encoded' })
+    .regex(/^[\w-]+$/, 'must be base64url-encoded')
+    .refine(value => Buffer.from(value, 'base64url').length >= 32, 'must hold at least 32 random bytes (43 base64url characters or more)'),
+  PUBLIC_URL: z.url({ protocol: /^https?$/, error: 'must be an http:// or https:// URL' }).optional(),
 })
 
-export type Env = z.infer<typeof EnvSchema>
+export type Env = z.infer<typeof EnvSchema> & { PUBLIC_URL: string }
 
 /** Thrown when the environment is unusable; its message names every bad variable. */
 export class ConfigError extends Error {
@@ -33,5 +37,10 @@ export function parseEnv(source: Record<string, string | undefined> = process.en
     const lines = result.error.issues.map(issue => `  ${issue.path.join('.') || '(root)'}: ${issue.message}`)
     throw new ConfigError(`Invalid configuration:\n${lines.join('\n')}`)
   }
-  return { ...result.data, DATABASE_URL: result.data.DATABASE_URL.replace(/^mariadb:/, 'mysql:') }
+  const host = result.data.HOST.includes(':') ? `[${result.data.HOST}]` : result.data.HOST
+  return {
+    ...result.data,
+    DATABASE_URL: result.data.DATABASE_URL.replace(/^mariadb:/, 'mysql:'),
+    PUBLIC_URL: result.data.PUBLIC_URL ?? `http://${host}:${result.data.PORT}/`,
+  }
 }

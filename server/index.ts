@@ -39,6 +39,8 @@ export async function serve(env: Env): Promise<RunningServer> {
     logger,
     version: pkg.version,
     bodyLimit: env.BODY_LIMIT,
+    jwtSecret: env.JWT_SECRET,
+    publicUrl: env.PUBLIC_URL,
     devMailbox: env.NODE_ENV === 'production' ? undefined : new Mailbox(path.join(env.DATA_DIR, 'mail')),
     staticDir: existsSync(distDir) ? distDir : undefined,
   })

@@ -71,7 +71,7 @@ export async function runStack(options: { build: boolean }): Promise<void> {
       console.log('Using the database named by DATABASE_URL; no private MariaDB is started.')
     }
 
-    const env = parseEnv({ ...process.env, DATABASE_URL: databaseUrl, DATA_DIR: dataDir, HOST: stackEnv.HOST, PORT: String(stackEnv.PORT), SMTP_PORT: String(stackEnv.SMTP_PORT) })
+    const env = parseEnv({ JWT_SECRET: secrets.jwtSecret, ...process.env, DATABASE_URL: databaseUrl, DATA_DIR: dataDir, HOST: stackEnv.HOST, PORT: String(stackEnv.PORT), SMTP_PORT: String(stackEnv.SMTP_PORT) })
     await runMigrations(env.DATABASE_URL)
     const seeding = createDatabase(env.DATABASE_URL, { connectionLimit: 1 })
     const seeded = await seedDemo(seeding.db).finally(() => seeding.pool.end())

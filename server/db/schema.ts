@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm'
-import { char, datetime, index, mysqlEnum, mysqlTable, primaryKey, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
+import { bigint, char, datetime, index, json, mysqlEnum, mysqlTable, primaryKey, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
 
 /** Every id is a UUID (v7 where the client makes it), kept as its 36-character text form. */
 const uuid = (name: string) => char(name, { length: 36 })
@@ -32,4 +32,68 @@ export const memberships = mysqlTable('memberships', {
 }, table => [
   primaryKey({ columns: [table.teamId, table.userId] }),
   index('memberships_user_idx').on(table.userId),
+])
+
+/** SHA-256 of a secret token in hex: tokens themselves are never stored. */
+const tokenHash = (name: string) => char(name, { length: 64 })
+const when = (name: string) => datetime(name, { fsp: 3 })
+
+/**
+ * Refresh tokens, one row per issued token. A sign-in starts a family; each refresh marks its token
+ * used and issues the next in the same family. Presenting a used token revokes the whole family.
+ */
+export const refreshTokens = mysqlTable('refresh_tokens', {
+  id: uuid('id').primaryKey(),
+  userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  familyId: uuid('family_id').notNull(),
+  tokenHash: tokenHash('token_hash').notNull(),
+  createdAt: createdAt(),
+  expiresAt: when('expires_at').notNull(),
+  usedAt: when('used_at'),
+  revokedAt: when('revoked_at'),
+}, table => [
+  uniqueIndex('refresh_tokens_hash_unique').on(table.tokenHash),
+  index('refresh_tokens_family_idx').on(table.familyId),
+  index('refresh_tokens_user_idx').on(table.userId),
+])
+
+export const passwordResets = mysqlTable('password_resets', {
+  id: uuid('id').primaryKey(),
+  userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  tokenHash: tokenHash('token_hash').notNull(),
+  createdAt: createdAt(),
+  expiresAt: when('expires_at').notNull(),
+  usedAt: when('used_at'),
+}, table => [uniqueIndex('password_resets_hash_unique').on(table.tokenHash)])
+
+export const invitations = mysqlTable('invitations', {
+  id: uuid('id').primaryKey(),
+  teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),
+  email: varchar('email', { length: 254 }).notNull(),
+  role: mysqlEnum('role', roles).notNull(),
+  tokenHash: tokenHash('token_hash').notNull(),
+  invitedBy: uuid('invited_by').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  createdAt: createdAt(),
+  expiresAt: when('expires_at').notNull(),
+  acceptedAt: when('accepted_at'),
+  acceptedBy: uuid('accepted_by'),
+  revokedAt: when('revoked_at'),
+}, table => [
+  uniqueIndex('invitations_hash_unique').on(table.tokenHash),
+  index('invitations_team_idx').on(table.teamId),
+])
+
+/** Who did what, when: sign-ins, role changes, invitations, password resets. Rows are never edited. */
+export const auditLog = mysqlTable('audit_log', {
+  id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+  action: varchar('action', { length: 64 }).notNull(),
+  actorId: uuid('actor_id'),
+  teamId: uuid('team_id'),
+  subjectId: varchar('subject_id', { length: 64 }),
+  detail: json('detail').$type<Record<string, unknown>>(),
+  ip: varchar('ip', { length: 45 }),
+  createdAt: createdAt(),
+}, table => [
+  index('audit_log_team_idx').on(table.teamId, table.createdAt),
+  index('audit_log_actor_idx').on(table.actorId, table.createdAt),
 ])

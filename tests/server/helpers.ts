@@ -41,6 +41,9 @@ export async function createTestDatabase(): Promise<TestDatabase> {
   }
 }
 
+/** A fixed 32-byte test key (base64url); never used outside tests. */
+export const testJwtSecret = Buffer.alloc(32, 7).toString('base64url')
+
 /** The real app on a test database; the mailer points at a port nobody needs unless given one. */
 export function buildTestApp(database: Database, overrides: Partial<AppDeps> = {}): Express {
   return createApp({
@@ -49,6 +52,10 @@ export function buildTestApp(database: Database, overrides: Partial<AppDeps> = {
     logger: createLogger('silent'),
     version: 'test',
     bodyLimit: '100kb',
+    jwtSecret: testJwtSecret,
+    publicUrl: 'http://127.0.0.1:8080/',
+    // Tests sign in far more often than people do; the rate-limit test sets its own limits.
+    rateLimits: { register: { limit: 10_000, windowMs: 60_000 }, login: { limit: 10_000, windowMs: 60_000 }, reset: { limit: 10_000, windowMs: 60_000 } },
     ...overrides,
   })
 }

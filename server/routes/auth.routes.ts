@@ -1,0 +1,58 @@
+import type { CookieOptions, Request, RequestHandler, Response } from 'express'
+import type { AuthService, Session } from '../services/auth.service'
+import { Router } from 'express'
+import { LoginBodySchema, RegisterBodySchema, ResetConfirmBodySchema, ResetRequestBodySchema } from '../../shared/schemas/auth'
+import { refreshTtlMs } from '../services/auth.service'
+
+export const refreshCookieName = 'lixivia_refresh'
+export const refreshCookiePath = '/api/v1/auth'
+
+const loopbackHosts = new Set(['127.0.0.1', 'localhost', '::1', '[::1]'])
+
+/** httpOnly, SameSite=Strict, only sent to the auth routes; Secure everywhere but loopback. */
+function cookieOptions(req: Request): CookieOptions {
+  return { httpOnly: true, sameSite: 'strict', path: refreshCookiePath, secure: req.secure || !loopbackHosts.has(req.hostname) }
+}
+
+function sendSession(req: Request, res: Response, session: Session, status: number): void {
+  res.cookie(refreshCookieName, session.refreshToken, { ...cookieOptions(req), maxAge: refreshTtlMs })
+  res.status(status).set('Cache-Control', 'no-store').json({ user: session.user, accessToken: session.accessToken })
+}
+
+export interface AuthLimits { register: RequestHandler, login: RequestHandler, reset: RequestHandler }
+
+export function authRoutes(auth: AuthService, limits: AuthLimits): Router {
+  const router = Router()
+  const ctx = (req: Request) => ({ ip: req.ip })
+  const presented = (req: Request): string | undefined => (req.cookies as Record<string, string> | undefined)?.[refreshCookieName]
+
+  router.post('/auth/register', limits.register, async (req, res) => {
+    sendSession(req, res, await auth.register(RegisterBodySchema.parse(req.body), ctx(req)), 201)
+  })
+  router.post('/auth/login', limits.login, async (req, res) => {
+    sendSession(req, res, await auth.login(LoginBodySchema.parse(req.body), ctx(req)), 200)
+  })
+  router.post('/auth/refresh', async (req, res) => {
+    try {
+      sendSession(req, res, await auth.refresh(presented(req), ctx(req)), 200)
+    }
+    catch (error) {
+      res.clearCookie(refreshCookieName, cookieOptions(req))
+      throw error
+    }
+  })
+  router.post('/auth/logout', async (req, res) => {
+    await auth.logout(presented(req), ctx(req))
+    res.clearCookie(refreshCookieName, cookieOptions(req))
+    res.status(204).end()
+  })
+  router.post('/auth/password-reset/request', limits.reset, async (req, res) => {
+    await auth.requestReset(ResetRequestBodySchema.parse(req.body).email, ctx(req))
+    res.status(202).json({ status: 'sent-if-known' })
+  })
+  router.post('/auth/password-reset/confirm', limits.reset, async (req, res) => {
+    await auth.confirmReset(ResetConfirmBodySchema.parse(req.body), ctx(req))
+    res.status(204).end()
+  })
+  return router
+}
