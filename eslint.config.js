@@ -11,6 +11,8 @@ export default antfu(
       // Ionic's components are web components: `slot="end"` is the native Shadow DOM slot, not
       // Vue 2's slot syntax. The rule's autofix turns it into a Vue slot and the element vanishes.
       'vue/no-deprecated-slot-attribute': 'off',
+      // A describe names its unit as the code does: SignInPage, GET /api/v1/health, fitCalibration.
+      'test/prefer-lowercase-title': ['error', { ignore: ['describe'] }],
     },
   },
   {

@@ -28,7 +28,15 @@ function ionicSideEffectFree(): Plugin {
 
 export default defineConfig({
   plugins: [
-    vue(),
+    vue({
+      template: {
+        compilerOptions: {
+          // Ionic elements written in kebab case are used natively (see FormInput.vue); the
+          // PascalCase ones are @ionic/vue's components and resolve as usual.
+          isCustomElement: tag => tag.startsWith('ion-'),
+        },
+      },
+    }),
     ionicSideEffectFree(),
     VitePWA({
       registerType: 'prompt',

@@ -1,8 +1,9 @@
 import type { RouteRecordRaw } from 'vue-router'
 import { createRouter, createWebHistory } from '@ionic/vue-router'
 import ShellTabsPage from '../views/ShellTabsPage.vue'
+import { installGuards } from './guards'
 
-/** The five tabs; every page but the tab frame itself is loaded when first opened. */
+/** The five tabs and the account screens; every page but the tab frame loads when first opened. */
 export const routes: RouteRecordRaw[] = [
   { path: '/', redirect: '/bench' },
   {
@@ -16,6 +17,12 @@ export const routes: RouteRecordRaw[] = [
       { path: 'crew', name: 'crew', component: () => import('../views/CrewPage.vue') },
     ],
   },
+  { path: '/crew/members', name: 'team-members', component: () => import('../views/TeamMembersPage.vue') },
+  { path: '/join', name: 'join', component: () => import('../views/JoinTeamPage.vue') },
+  { path: '/sign-in', name: 'sign-in', component: () => import('../views/SignInPage.vue'), meta: { guest: true } },
+  { path: '/sign-up', name: 'sign-up', component: () => import('../views/SignUpPage.vue'), meta: { guest: true } },
+  { path: '/forgot-password', name: 'forgot-password', component: () => import('../views/ForgotPasswordPage.vue'), meta: { guest: true } },
+  { path: '/reset-password', name: 'reset-password', component: () => import('../views/ResetPasswordPage.vue'), meta: { guest: true } },
   { path: '/:pathMatch(.*)*', redirect: '/bench' },
 ]
 
@@ -23,3 +30,4 @@ export const router = createRouter({
   history: createWebHistory(import.meta.env.BASE_URL),
   routes,
 })
+installGuards(router)

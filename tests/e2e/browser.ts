@@ -36,3 +36,39 @@ export async function screenshot(page: Page, name: string): Promise<void> {
   mkdirSync(screenshotDir, { recursive: true })
   await page.screenshot({ path: path.join(screenshotDir, `${name}.png`) })
 }
+
+/** The seeded demo owner (server/db/seed.ts), printed by npm start. */
+export const demoOwner = { email: 'ines@kestrel-quay.test', password: 'kestrel-demo-2026' }
+
+/** A data-test element on the page Ionic is showing (it keeps earlier pages, hidden, in the DOM). */
+export const onScreen = (page: Page, name: string) => page.locator(`[data-test="${name}"]`).filter({ visible: true })
+
+/** Types into an Ionic text field found by its data-test name. */
+export async function fillField(page: Page, name: string, value: string): Promise<void> {
+  const field = onScreen(page, name).locator('input')
+  // During a page transition the leaving page is still visible for a moment.
+  for (let waited = 0; (await field.count()) !== 1 && waited < 5000; waited += 50)
+    await page.waitForTimeout(50)
+  await field.fill(value)
+}
+
+/** Signs in through the sign-in screen and waits for the app behind it. */
+export async function signIn(page: Page, account: { email: string, password: string }): Promise<void> {
+  await page.goto('/sign-in')
+  await fillField(page, 'email', account.email)
+  await fillField(page, 'password', account.password)
+  await onScreen(page, 'submit').click()
+  await page.waitForURL(url => !url.pathname.startsWith('/sign-in'))
+}
+
+/** Reads the newest message the local SMTP fake caught for an address, through the dev route. */
+export async function newestMailTo(page: Page, address: string): Promise<{ subject: string, text: string }> {
+  for (let attempt = 0; attempt < 50; attempt++) {
+    const list = await (await page.request.get('/api/v1/dev/mail')).json() as { mails: { id: string, to: string[] }[] }
+    const found = list.mails.find(mail => mail.to.includes(address))
+    if (found)
+      return (await page.request.get(`/api/v1/dev/mail/${found.id}`)).json()
+    await page.waitForTimeout(100)
+  }
+  throw new Error(`no mail to ${address}`)
+}

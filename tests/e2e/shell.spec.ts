@@ -1,6 +1,6 @@
 import type { Browser, BrowserContext, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { launchBrowser, phoneContext, screenshot, watchErrors } from './browser'
+import { demoOwner, launchBrowser, phoneContext, screenshot, signIn, watchErrors } from './browser'
 
 let browser: Browser
 let context: BrowserContext
@@ -21,7 +21,15 @@ afterAll(async () => {
 })
 
 describe('the app shell', () => {
+  it('sends a visitor with no identity to the sign-in screen', async () => {
+    await page.goto('/ledger')
+    await page.waitForURL(url => url.pathname === '/sign-in')
+    expect(new URL(page.url()).searchParams.get('redirect')).toBe('/ledger')
+    await screenshot(page, 'sign-in')
+  })
+
   it('opens on the Bench tab with five tabs and the network chip', async () => {
+    await signIn(page, demoOwner)
     await page.goto('/')
     await waitForTitle(page, 'Bench')
     expect(new URL(page.url()).pathname).toBe('/bench')
@@ -91,6 +99,9 @@ describe('the app shell', () => {
       await waitForTitle(page, 'Bench')
       await expect.poll(() => page.locator('.ion-page:not(.ion-page-hidden) [data-test="network-chip"]').innerText()).toContain('Offline')
       await expect.poll(() => page.evaluate(() => document.fonts.check('16px Nunito'))).toBe(true)
+      // The identity cached on the phone keeps the person signed in without signal.
+      await page.locator('#tab-button-crew').click()
+      await expect.poll(() => page.locator('[data-test="account-name"]').innerText()).toBe('Ines Marwood')
       // The API is never answered from the cache: offline it fails.
       const apiFailed = await page.evaluate(() => fetch('/api/v1/health').then(() => false, () => true))
       expect(apiFailed).toBe(true)

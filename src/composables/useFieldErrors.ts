@@ -1,0 +1,52 @@
+import type { Ref } from 'vue'
+import type { z } from 'zod'
+import { reactive, ref } from 'vue'
+import { ApiError } from '../api/client'
+
+/**
+ * Errors beside each field, worded with the field's label ("Password must be at least 10
+ * characters"), from the shared zod schema before sending and from the server's answer after.
+ */
+export function useFieldErrors<K extends string>(labels: Record<K, string>): {
+  errors: Partial<Record<K, string>>
+  formError: Ref<string>
+  check: <S extends z.ZodType>(schema: S, values: unknown) => z.infer<S> | null
+  fromError: (error: unknown) => void
+} {
+  const errors = reactive({}) as Partial<Record<K, string>>
+  const formError = ref('')
+
+  function clear(): void {
+    for (const key of Object.keys(labels) as K[])
+      delete errors[key]
+    formError.value = ''
+  }
+
+  function place(path: string, message: string): void {
+    const field = path.split('.')[0] as K
+    if (field in labels)
+      errors[field] = `${labels[field]} ${message}`
+    else
+      formError.value = message
+  }
+
+  function check<S extends z.ZodType>(schema: S, values: unknown): z.infer<S> | null {
+    clear()
+    const result = schema.safeParse(values)
+    if (result.success)
+      return result.data
+    for (const issue of result.error.issues)
+      place(issue.path.join('.'), issue.message)
+    return null
+  }
+
+  function fromError(error: unknown): void {
+    clear()
+    if (error instanceof ApiError && error.issues.length > 0)
+      error.issues.forEach(issue => place(issue.path, issue.message))
+    else
+      formError.value = error instanceof Error ? error.message : 'Something went wrong.'
+  }
+
+  return { errors, formError, check, fromError }
+}

@@ -1,0 +1,94 @@
+import type { Membership, Role, User } from '../../shared/schemas/auth'
+import { defineStore } from 'pinia'
+import { computed, ref, toRaw } from 'vue'
+import { signIn as apiSignIn, signOut as apiSignOut, signUp as apiSignUp, fetchMe } from '../api/accounts'
+import { ApiError, refreshSession, whenSessionEnds } from '../api/client'
+import { db } from '../db/database'
+
+/**
+ * starting: not known yet. signed-in: the server knows us. offline: no signal, working under the
+ * identity cached on this phone. expired: the session cannot be renewed; sign in again (nothing on
+ * the phone is lost). signed-out: nobody.
+ */
+export type SessionStatus = 'starting' | 'signed-in' | 'offline' | 'expired' | 'signed-out'
+
+export const useSessionStore = defineStore('session', () => {
+  const status = ref<SessionStatus>('starting')
+  const user = ref<User | null>(null)
+  const memberships = ref<Membership[]>([])
+  const activeTeamId = ref<string | null>(null)
+
+  const activeMembership = computed(() => memberships.value.find(m => m.teamId === activeTeamId.value) ?? null)
+  const role = computed<Role | null>(() => activeMembership.value?.role ?? null)
+  const canManageTeam = computed(() => role.value === 'owner' || role.value === 'lead')
+
+  async function remember(next: { user: User, memberships: Membership[] }): Promise<void> {
+    user.value = next.user
+    memberships.value = next.memberships
+    if (!next.memberships.some(m => m.teamId === activeTeamId.value))
+      activeTeamId.value = next.memberships[0]?.teamId ?? null
+    // IndexedDB cannot store Vue proxies: write plain copies.
+    await db.identity.put({ key: 'current', user: toRaw(user.value), memberships: memberships.value.map(m => ({ ...toRaw(m) })), activeTeamId: activeTeamId.value, cachedAt: new Date().toISOString() })
+  }
+
+  async function loadProfile(): Promise<void> {
+    await remember(await fetchMe())
+    status.value = 'signed-in'
+  }
+
+  let restoring: Promise<void> | null = null
+  /** Once per app start: the cached identity first, then the server's word if there is signal. */
+  function ready(): Promise<void> {
+    restoring ??= (async () => {
+      const cached = await db.identity.get('current')
+      if (cached) {
+        user.value = cached.user
+        memberships.value = cached.memberships
+        activeTeamId.value = cached.activeTeamId
+      }
+      try {
+        const session = await refreshSession()
+        if (session)
+          await loadProfile()
+        else
+          status.value = cached ? 'expired' : 'signed-out'
+      }
+      catch (error) {
+        if (!(error instanceof ApiError) || error.code !== 'network')
+          throw error
+        status.value = cached ? 'offline' : 'signed-out'
+      }
+    })()
+    return restoring
+  }
+
+  whenSessionEnds(() => {
+    status.value = user.value ? 'expired' : 'signed-out'
+  })
+
+  async function signIn(email: string, password: string): Promise<void> {
+    await apiSignIn(email, password)
+    await loadProfile()
+  }
+
+  async function signUp(name: string, email: string, password: string): Promise<void> {
+    await apiSignUp(name, email, password)
+    await loadProfile()
+  }
+
+  async function signOut(): Promise<void> {
+    await apiSignOut().catch(() => undefined)
+    await db.identity.delete('current')
+    user.value = null
+    memberships.value = []
+    activeTeamId.value = null
+    status.value = 'signed-out'
+  }
+
+  async function switchTeam(teamId: string): Promise<void> {
+    activeTeamId.value = teamId
+    await db.identity.update('current', { activeTeamId: teamId })
+  }
+
+  return { status, user, memberships, activeTeamId, activeMembership, role, canManageTeam, ready, signIn, signUp, signOut, switchTeam, reloadProfile: loadProfile }
+})
