@@ -35,6 +35,24 @@ export function createTeamsService(db: Db) {
     return owners.filter(owner => owner.userId !== userId).length
   }
 
+  async function teamFor(teamId: string, userId: string): Promise<TeamResponse> {
+    const role = await roleIn(teamId, userId)
+    const [team] = await db.select().from(teams).where(eq(teams.id, teamId))
+    if (!team)
+      throw notFoundError('team')
+    return { team: { id: team.id, name: team.name, createdAt: team.createdAt.toISOString() }, role }
+  }
+
+  async function membersOf(teamId: string, userId: string): Promise<Member[]> {
+    await roleIn(teamId, userId)
+    const rows = await db.select({ userId: users.id, name: users.name, email: users.email, role: memberships.role, joinedAt: memberships.createdAt })
+      .from(memberships)
+      .innerJoin(users, eq(users.id, memberships.userId))
+      .where(eq(memberships.teamId, teamId))
+      .orderBy(sql`FIELD(${memberships.role}, 'owner', 'lead', 'member', 'viewer')`, asc(users.name))
+    return rows.map(row => ({ ...row, joinedAt: row.joinedAt.toISOString() }))
+  }
+
   return {
     roleIn,
 
@@ -60,34 +78,20 @@ export function createTeamsService(db: Db) {
         await tx.insert(memberships).values({ teamId: id, userId: actor.userId, role: 'owner' })
         await audit(tx, { action: 'team.created', actorId: actor.userId, teamId: id, subjectId: id, ip: actor.ip })
       })
-      return this.get(id, actor.userId)
+      return teamFor(id, actor.userId)
     },
 
-    async get(teamId: string, userId: string): Promise<TeamResponse> {
-      const role = await roleIn(teamId, userId)
-      const [team] = await db.select().from(teams).where(eq(teams.id, teamId))
-      if (!team)
-        throw notFoundError('team')
-      return { team: { id: team.id, name: team.name, createdAt: team.createdAt.toISOString() }, role }
-    },
+    get: teamFor,
 
     async rename(teamId: string, name: string, actor: Actor): Promise<TeamResponse> {
       if (!can.editTeam(await roleIn(teamId, actor.userId)))
         throw forbidden('Only an owner can change the team\'s settings.')
       await db.update(teams).set({ name, updatedAt: new Date() }).where(eq(teams.id, teamId))
       await audit(db, { action: 'team.renamed', actorId: actor.userId, teamId, subjectId: teamId, detail: { name }, ip: actor.ip })
-      return this.get(teamId, actor.userId)
+      return teamFor(teamId, actor.userId)
     },
 
-    async members(teamId: string, userId: string): Promise<Member[]> {
-      await roleIn(teamId, userId)
-      const rows = await db.select({ userId: users.id, name: users.name, email: users.email, role: memberships.role, joinedAt: memberships.createdAt })
-        .from(memberships)
-        .innerJoin(users, eq(users.id, memberships.userId))
-        .where(eq(memberships.teamId, teamId))
-        .orderBy(sql`FIELD(${memberships.role}, 'owner', 'lead', 'member', 'viewer')`, asc(users.name))
-      return rows.map(row => ({ ...row, joinedAt: row.joinedAt.toISOString() }))
-    },
+    members: membersOf,
 
     async changeRole(teamId: string, targetId: string, role: Role, actor: Actor): Promise<Member[]> {
       if (!can.manageMembers(await roleIn(teamId, actor.userId)))
@@ -101,7 +105,7 @@ export function createTeamsService(db: Db) {
         await tx.update(memberships).set({ role }).where(and(eq(memberships.teamId, teamId), eq(memberships.userId, targetId)))
         await audit(tx, { action: 'member.role_changed', actorId: actor.userId, teamId, subjectId: targetId, detail: { from: target.role, to: role }, ip: actor.ip })
       })
-      return this.members(teamId, actor.userId)
+      return membersOf(teamId, actor.userId)
     },
 
     /** An owner removes anyone; everyone else may only leave. */
