@@ -4,6 +4,7 @@ import type { Database } from './db/client'
 import type { Mailbox } from './mail/mailbox'
 import type { Mailer } from './mail/mailer'
 import type { RateLimits } from './middleware/rate-limits'
+import type { SyncHooks } from './services/sync.service'
 import { existsSync } from 'node:fs'
 import path from 'node:path'
 import cookieParser from 'cookie-parser'
@@ -17,9 +18,11 @@ import { defaultRateLimits, limiter } from './middleware/rate-limits'
 import { authRoutes } from './routes/auth.routes'
 import { devMailRoutes } from './routes/dev-mail.routes'
 import { healthRoutes } from './routes/health.routes'
+import { syncRoutes } from './routes/sync.routes'
 import { teamRoutes } from './routes/teams.routes'
 import { createAuthService } from './services/auth.service'
 import { createInvitationsService } from './services/invitations.service'
+import { createSyncService } from './services/sync.service'
 import { createTeamsService } from './services/teams.service'
 
 export interface AppDeps {
@@ -34,6 +37,8 @@ export interface AppDeps {
   /** Where people open the app; e-mailed links point here. */
   publicUrl: string
   rateLimits?: Partial<RateLimits>
+  /** Test seams inside the sync transaction. */
+  syncHooks?: SyncHooks
   /** The fake SMTP server's mailbox; when given, `/api/v1/dev/mail` lists it (never in production). */
   devMailbox?: Mailbox
   /** The built client (`dist/`); when given, the app is served beside the API. */
@@ -96,6 +101,7 @@ export function createApp(deps: AppDeps): Express {
   const teams = createTeamsService(db)
   const invitations = createInvitationsService({ db, teams, mailer: deps.mailer, publicUrl: deps.publicUrl })
   const auth = createAuthService({ db, tokens, mailer: deps.mailer, publicUrl: deps.publicUrl })
+  const sync = createSyncService({ db, teams, hooks: deps.syncHooks })
 
   const api = express.Router()
   api.use(healthRoutes({ pool: deps.database.pool, version: deps.version }))
@@ -103,8 +109,9 @@ export function createApp(deps: AppDeps): Express {
     api.use(devMailRoutes(deps.devMailbox))
   api.use(authRoutes(auth, { register: limiter(limits.register), login: limiter(limits.login), reset: limiter(limits.reset) }))
   // Signed-in routes; scoped by path so that an unknown route still answers 404, not 401.
-  api.use(['/me', '/teams', '/invitations'], requireAuth(tokens))
+  api.use(['/me', '/teams', '/invitations', '/sync'], requireAuth(tokens))
   api.use(teamRoutes(teams, invitations))
+  api.use(syncRoutes(sync))
   app.use('/api/v1', api)
   app.use('/api', apiNotFound)
 

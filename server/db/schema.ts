@@ -1,3 +1,4 @@
+import type { MySqlColumnBuilderBase } from 'drizzle-orm/mysql-core'
 import { sql } from 'drizzle-orm'
 import { bigint, char, datetime, index, json, mysqlEnum, mysqlTable, primaryKey, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
 
@@ -97,3 +98,56 @@ export const auditLog = mysqlTable('audit_log', {
   index('audit_log_team_idx').on(table.teamId, table.createdAt),
   index('audit_log_actor_idx').on(table.actorId, table.createdAt),
 ])
+
+/**
+ * A synced record table: the envelope every record shares, the phone's data as validated JSON (the
+ * zod schemas in shared/schemas/entities.ts are its shape), what the server derives from it, and
+ * the rev at which each field last changed, so edits of different fields merge instead of clashing.
+ * References to other records get real, indexed columns.
+ */
+function recordTable<T extends Record<string, MySqlColumnBuilderBase>>(name: string, references: T) {
+  return mysqlTable(name, {
+    id: uuid('id').primaryKey(),
+    teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),
+    createdBy: uuid('created_by').notNull(),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+    rev: bigint('rev', { mode: 'number', unsigned: true }).notNull(),
+    deletedAt: when('deleted_at'),
+    data: json('data').$type<Record<string, unknown>>().notNull(),
+    derived: json('derived').$type<Record<string, unknown>>(),
+    fieldRevs: json('field_revs').$type<Record<string, number>>().notNull(),
+    ...references,
+  }, table => [
+    index(`${name}_team_rev_idx`).on(table.teamId, table.rev),
+    ...Object.keys(references).map(key => index(`${name}_${key.replace(/[A-Z]/g, c => `_${c.toLowerCase()}`)}_idx`).on(table[key as keyof typeof table] as never)),
+  ])
+}
+
+const ref = (name: string) => uuid(name)
+
+export const instruments = recordTable('instruments', {})
+export const calibrations = recordTable('calibrations', { instrumentId: ref('instrument_id') })
+export const brews = recordTable('brews', { contextRefId: ref('context_ref_id'), calibrationId: ref('calibration_id') })
+export const readings = recordTable('readings', { brewId: ref('brew_id') })
+export const events = recordTable('events', {})
+export const rounds = recordTable('rounds', { eventId: ref('event_id'), signedOffAt: when('signed_off_at'), signedOffBy: uuid('signed_off_by') })
+export const entries = recordTable('entries', { roundId: ref('round_id') })
+export const trips = recordTable('trips', {})
+export const lots = recordTable('lots', { tripId: ref('trip_id') })
+export const recipes = recordTable('recipes', {})
+
+/** Per team, the last rev handed out. Locked inside each push, so commits happen in rev order. */
+export const teamSyncState = mysqlTable('team_sync_state', {
+  teamId: uuid('team_id').primaryKey().references(() => teams.id, { onDelete: 'cascade' }),
+  lastRev: bigint('last_rev', { mode: 'number', unsigned: true }).notNull().default(0),
+})
+
+/** Every mutation a phone delivered, with the answer it got: a repeated delivery gets it again. */
+export const syncMutations = mysqlTable('sync_mutations', {
+  clientId: uuid('client_id').notNull(),
+  mutationId: uuid('mutation_id').notNull(),
+  userId: uuid('user_id').notNull(),
+  result: json('result').$type<Record<string, unknown>>().notNull(),
+  createdAt: createdAt(),
+}, table => [primaryKey({ columns: [table.clientId, table.mutationId] })])

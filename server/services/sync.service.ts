@@ -1,0 +1,300 @@
+import type { z } from 'zod'
+import type { Role } from '../../shared/schemas/auth'
+import type { Change, EntityName, Mutation, MutationResult } from '../../shared/schemas/entities'
+import type { Db } from '../db/client'
+import type { RecordTable } from '../sync/registry'
+import type { TeamsService } from './teams.service'
+import { and, asc, eq, gt, inArray, isNull } from 'drizzle-orm'
+import { BrewingInputError } from '../../shared/brewing'
+import { maxMutationsPerPush, MutationSchema, PullQuerySchema, PushBodySchema } from '../../shared/schemas/entities'
+import { calibrations, entries, readings, rounds, syncMutations, teamSyncState } from '../db/schema'
+import { HttpError } from '../http-error'
+import { deriveBrew, deriveCalibration } from '../sync/derive'
+import { registry } from '../sync/registry'
+
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0]
+type Row = RecordTable['$inferSelect'] & { signedOffAt?: Date | null }
+
+const entityNames = Object.keys(registry) as EntityName[]
+const iso = (date: Date | null | undefined): string | null => (date ? date.toISOString() : null)
+const isObject = (value: unknown): value is Record<string, unknown> => typeof value === 'object' && value !== null && !Array.isArray(value)
+const same = (a: unknown, b: unknown): boolean => JSON.stringify(a ?? null) === JSON.stringify(b ?? null)
+
+function describe(error: z.ZodError): string {
+  const issue = error.issues[0]
+  return issue ? `${issue.path.join('.') || 'mutation'}: ${issue.message}` : 'The mutation is not valid.'
+}
+
+/** What phones receive: the envelope, the data, and what the server derived from it. */
+export function toRecord(row: Row): Record<string, unknown> {
+  return {
+    ...row.data,
+    id: row.id,
+    teamId: row.teamId,
+    createdBy: row.createdBy,
+    createdAt: iso(row.createdAt),
+    updatedAt: iso(row.updatedAt),
+    rev: row.rev,
+    deletedAt: iso(row.deletedAt),
+    derived: row.derived ?? null,
+    ...('signedOffAt' in row ? { signedOffAt: iso(row.signedOffAt) } : {}),
+  }
+}
+
+export interface SyncHooks {
+  /** Runs inside the push transaction just before it commits (tests hold a commit back with it). */
+  beforeCommit?: () => Promise<void>
+}
+
+export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: SyncHooks }) {
+  const { db } = deps
+
+  async function find(tx: Tx, entity: EntityName, id: string, lock = false): Promise<Row | undefined> {
+    const table = registry[entity].table
+    const query = tx.select().from(table).where(eq(table.id, id))
+    const [row] = lock ? await query.for('update') : await query
+    return row as Row | undefined
+  }
+
+  async function roundSignedOff(tx: Tx, roundId: unknown): Promise<boolean> {
+    if (typeof roundId !== 'string')
+      return false
+    const [round] = await tx.select({ signedOffAt: rounds.signedOffAt }).from(rounds).where(eq(rounds.id, roundId))
+    return Boolean(round?.signedOffAt)
+  }
+
+  /** A record inside a signed-off round (the round, its entries, their brews and readings) is frozen. */
+  async function frozenReason(tx: Tx, entity: EntityName, id: string, data: Record<string, unknown>): Promise<string | null> {
+    const reason = 'This round is signed off: its results can no longer change. Ask the head judge if a correction is needed.'
+    let roundId: unknown = null
+    if (entity === 'round') {
+      roundId = id
+    }
+    else if (entity === 'entry') {
+      roundId = data.roundId
+    }
+    else if (entity === 'brew' || entity === 'reading') {
+      const brew = entity === 'brew' ? { data } : await find(tx, 'brew', data.brewId as string)
+      const context = brew?.data.context as { kind?: string, refId?: string } | undefined
+      if (context?.kind === 'entry' && context.refId) {
+        const [entry] = await tx.select({ roundId: entries.roundId }).from(entries).where(eq(entries.id, context.refId))
+        roundId = entry?.roundId
+      }
+    }
+    return (await roundSignedOff(tx, roundId)) ? reason : null
+  }
+
+  async function apply(tx: Tx, m: Mutation, role: Role, userId: string, nextRev: () => number, touched: Map<string, { rev: number | null }>): Promise<MutationResult> {
+    const definition = registry[m.entity]
+    const table = definition.table
+    const rejected = (reason: string): MutationResult => ({ mutationId: m.mutationId, status: 'rejected', reason })
+    const applied = (rev: number): MutationResult => ({ mutationId: m.mutationId, status: 'applied', rev })
+    if (role === 'viewer')
+      return rejected('Viewers can read the team\'s records but not change them.')
+
+    const current = await find(tx, m.entity, m.id, true)
+    if (current && current.teamId !== m.teamId)
+      return rejected('This record belongs to another team.')
+    if (current && role === 'member' && current.createdBy !== userId)
+      return rejected('Members can change only the records they made; ask a lead to correct this one.')
+    const conflict = (): MutationResult => ({ mutationId: m.mutationId, status: 'conflict', rev: current!.rev, server: toRecord(current!) })
+
+    if (m.op === 'delete') {
+      if (!current)
+        return rejected('There is no such record on the server.')
+      if (definition.appendOnly)
+        return rejected('Readings are kept as recorded and cannot be deleted.')
+      if (current.deletedAt)
+        return applied(current.rev)
+      if (m.baseRev !== null && current.rev > m.baseRev)
+        return conflict()
+      const frozen = await frozenReason(tx, m.entity, m.id, current.data)
+      if (frozen)
+        return rejected(frozen)
+      const rev = nextRev()
+      await tx.update(table).set({ deletedAt: new Date(), updatedAt: new Date(), rev }).where(eq(table.id, m.id))
+      return applied(rev)
+    }
+
+    if (!isObject(m.data))
+      return rejected('data: a put needs the record\'s fields.')
+    if (current?.deletedAt)
+      return conflict()
+    // An edit sends only the fields it changed; they are checked together with the server's copy.
+    const parsed = definition.schema.safeParse(current ? { ...current.data, ...m.data } : m.data)
+    if (!parsed.success)
+      return rejected(describe(parsed.error))
+    const data = parsed.data
+    const changed = current ? Object.keys(m.data).filter(key => !same(data[key], current.data[key])) : Object.keys(data)
+    if (current) {
+      if (changed.length === 0)
+        return applied(current.rev)
+      if (definition.appendOnly)
+        return rejected('Readings cannot be changed once recorded; add a new reading instead.')
+      // Edits of different fields merge; a field changed on the server since the phone's copy clashes.
+      if (m.baseRev === null || changed.some(key => (current.fieldRevs[key] ?? 0) > (m.baseRev as number)))
+        return conflict()
+    }
+    for (const [entity, parentId] of definition.parents(data)) {
+      const parent = await find(tx, entity, parentId)
+      if (!parent || parent.teamId !== m.teamId || parent.deletedAt)
+        return rejected(`The ${entity} this record belongs to is not on the server.`)
+    }
+    const frozen = await frozenReason(tx, m.entity, m.id, data)
+    if (frozen)
+      return rejected(frozen)
+
+    let derived: Record<string, unknown> | null = current?.derived ?? null
+    if (m.entity === 'calibration') {
+      try {
+        derived = deriveCalibration(data)
+      }
+      catch (error) {
+        if (error instanceof BrewingInputError)
+          return rejected(`points: ${error.message}`)
+        throw error
+      }
+    }
+    const rev = nextRev()
+    const fieldRevs = { ...current?.fieldRevs, ...Object.fromEntries(changed.map(key => [key, rev])) }
+    const columns = { data, derived, fieldRevs, rev, updatedAt: new Date(), ...definition.references(data) }
+    if (current)
+      await tx.update(table).set(columns).where(eq(table.id, m.id))
+    else
+      await tx.insert(table).values({ id: m.id, teamId: m.teamId, createdBy: userId, ...columns })
+    if (m.entity === 'brew')
+      touched.set(m.id, { rev })
+    else if (m.entity === 'reading' && !touched.has(data.brewId as string))
+      touched.set(data.brewId as string, { rev: null })
+    return applied(rev)
+  }
+
+  /** Recomputes a brew's strength and yield from its readings; a changed result is a new rev. */
+  async function rederiveBrew(tx: Tx, brewId: string, revInBatch: number | null, nextRev: () => number): Promise<void> {
+    const brew = await find(tx, 'brew', brewId, true)
+    if (!brew)
+      return
+    const values = (await tx.select({ data: readings.data }).from(readings).where(and(eq(readings.brewId, brewId), isNull(readings.deletedAt)))).map(r => r.data.value as number)
+    let calibration = null
+    if (typeof brew.data.calibrationId === 'string') {
+      const [row] = await tx.select().from(calibrations).where(eq(calibrations.id, brew.data.calibrationId))
+      const fit = (row?.derived as { fit?: unknown } | null)?.fit
+      if (row && fit)
+        calibration = { fit: fit as never, standardUnit: row.data.standardUnit as 'brix' | 'tds' }
+    }
+    const derived = deriveBrew(brew.data, values, calibration)
+    if (same(derived, brew.derived))
+      return
+    const table = registry.brew.table
+    await tx.update(table).set({ derived, rev: revInBatch ?? nextRev(), updatedAt: new Date() }).where(eq(table.id, brewId))
+  }
+
+  return {
+    async push(userId: string, body: unknown): Promise<{ results: MutationResult[] }> {
+      const count = isObject(body) && Array.isArray(body.mutations) ? body.mutations.length : 0
+      if (count > maxMutationsPerPush)
+        throw new HttpError(413, 'batch_too_large', `A push holds at most ${maxMutationsPerPush} mutations; this one held ${count}. Send them in smaller batches.`)
+      const { clientId, mutations } = PushBodySchema.parse(body)
+      const items = mutations.map((raw, index) => ({ raw, index, parsed: MutationSchema.safeParse(raw) }))
+      const roles = new Map<string, Role>()
+      for (const item of items) {
+        if (item.parsed.success && !roles.has(item.parsed.data.teamId))
+          roles.set(item.parsed.data.teamId, await deps.teams.roleIn(item.parsed.data.teamId, userId))
+      }
+
+      return db.transaction(async (tx) => {
+        // Lock each team's counter (in a fixed order, so two pushes cannot deadlock): a second push
+        // to the same team waits here until this one commits, so revs commit in the order given.
+        const counters = new Map<string, number>()
+        for (const teamId of [...roles.keys()].sort()) {
+          await tx.insert(teamSyncState).ignore().values({ teamId, lastRev: 0 })
+          const [state] = await tx.select().from(teamSyncState).where(eq(teamSyncState.teamId, teamId)).for('update')
+          counters.set(teamId, state!.lastRev)
+        }
+        const touchedByTeam = new Map<string, Map<string, { rev: number | null }>>()
+        const results: MutationResult[] = []
+        for (const item of items) {
+          if (!item.parsed.success) {
+            const mutationId = isObject(item.raw) && typeof item.raw.mutationId === 'string' ? item.raw.mutationId : `#${item.index}`
+            results.push({ mutationId, status: 'rejected', reason: describe(item.parsed.error) })
+            continue
+          }
+          const m = item.parsed.data
+          const [seen] = await tx.select().from(syncMutations).where(and(eq(syncMutations.clientId, clientId), eq(syncMutations.mutationId, m.mutationId)))
+          if (seen) {
+            results.push(seen.result as MutationResult)
+            continue
+          }
+          const nextRev = (): number => {
+            const rev = counters.get(m.teamId)! + 1
+            counters.set(m.teamId, rev)
+            return rev
+          }
+          const touched = touchedByTeam.get(m.teamId) ?? new Map()
+          touchedByTeam.set(m.teamId, touched)
+          const result = await apply(tx, m, roles.get(m.teamId)!, userId, nextRev, touched)
+          await tx.insert(syncMutations).values({ clientId, mutationId: m.mutationId, userId, result })
+          results.push(result)
+        }
+        for (const [teamId, touched] of touchedByTeam) {
+          const nextRev = (): number => {
+            const rev = counters.get(teamId)! + 1
+            counters.set(teamId, rev)
+            return rev
+          }
+          for (const [brewId, { rev }] of touched)
+            await rederiveBrew(tx, brewId, rev, nextRev)
+        }
+        for (const [teamId, lastRev] of counters)
+          await tx.update(teamSyncState).set({ lastRev }).where(eq(teamSyncState.teamId, teamId))
+        await deps.hooks?.beforeCommit?.()
+        return { results }
+      })
+    },
+
+    /** Changes after a cursor, in rev order, read from one snapshot so none is skipped. */
+    async pull(userId: string, query: unknown): Promise<{ changes: Change[], cursor: number, hasMore: boolean }> {
+      const { teamId, since, limit } = PullQuerySchema.parse(query)
+      await deps.teams.roleIn(teamId, userId)
+      const found = await db.transaction(async (tx) => {
+        const rows: { entity: EntityName, row: Row }[] = []
+        for (const entity of entityNames) {
+          const table = registry[entity].table
+          const page = await tx.select().from(table).where(and(eq(table.teamId, teamId), gt(table.rev, since))).orderBy(asc(table.rev)).limit(limit + 1)
+          rows.push(...page.map(row => ({ entity, row: row as Row })))
+        }
+        return rows
+      }, { isolationLevel: 'repeatable read', accessMode: 'read only' })
+      found.sort((a, b) => a.row.rev - b.row.rev)
+      const page = found.slice(0, limit)
+      return {
+        changes: page.map(({ entity, row }) => ({ entity, id: row.id, rev: row.rev, op: row.deletedAt ? 'delete' : 'put', data: toRecord(row) })),
+        cursor: page.at(-1)?.row.rev ?? since,
+        hasMore: found.length > limit,
+      }
+    },
+
+    /** A lead or owner freezes a round: every later change to it, its entries or their brews is refused. */
+    async signOffRound(teamId: string, roundId: string, actor: { userId: string }): Promise<Record<string, unknown>> {
+      const role = await deps.teams.roleIn(teamId, actor.userId)
+      if (role !== 'owner' && role !== 'lead')
+        throw new HttpError(403, 'forbidden', 'Only a lead or an owner can sign off a round.')
+      return db.transaction(async (tx) => {
+        await tx.insert(teamSyncState).ignore().values({ teamId, lastRev: 0 })
+        const [state] = await tx.select().from(teamSyncState).where(eq(teamSyncState.teamId, teamId)).for('update')
+        const [round] = await tx.select().from(rounds).where(and(eq(rounds.id, roundId), eq(rounds.teamId, teamId), isNull(rounds.deletedAt))).for('update')
+        if (!round)
+          throw new HttpError(404, 'not_found', 'No such round.')
+        if (round.signedOffAt)
+          return toRecord(round as Row)
+        const rev = state!.lastRev + 1
+        await tx.update(rounds).set({ signedOffAt: new Date(), signedOffBy: actor.userId, rev, updatedAt: new Date() }).where(eq(rounds.id, roundId))
+        await tx.update(teamSyncState).set({ lastRev: rev }).where(eq(teamSyncState.teamId, teamId))
+        const [signed] = await tx.select().from(rounds).where(inArray(rounds.id, [roundId]))
+        return toRecord(signed as Row)
+      })
+    },
+  }
+}
+
+export type SyncService = ReturnType<typeof createSyncService>
