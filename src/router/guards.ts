@@ -24,6 +24,8 @@ export function installGuards(router: Router): void {
     }
     if (!session.user)
       return { name: 'sign-in', query: { redirect: to.fullPath } }
+    // The outbox and sync engine load with the first signed-in screen, not in the entry chunk.
+    void import('../stores/sync').then(({ useSyncStore }) => useSyncStore().start())
     return true
   })
 }

@@ -1,5 +1,6 @@
 import { IonicVue } from '@ionic/vue'
 import { mount } from '@vue/test-utils'
+import { createPinia } from 'pinia'
 import { afterEach, describe, expect, it, vi } from 'vitest'
 import { nextTick } from 'vue'
 import ShellNetworkChip from '../../src/components/shell/ShellNetworkChip.vue'
@@ -23,7 +24,7 @@ afterEach(() => {
 describe('shellNetworkChip', () => {
   it('shows the network state and tells the person when it changes', async () => {
     vi.spyOn(navigator, 'onLine', 'get').mockReturnValue(true)
-    const wrapper = mount(ShellNetworkChip, { global: { plugins: [IonicVue] } })
+    const wrapper = mount(ShellNetworkChip, { global: { plugins: [IonicVue, createPinia()] } })
     expect(label(wrapper)).toBe('Online')
 
     setOnline(false)

@@ -50,6 +50,11 @@ describe('the app shell', () => {
     }
   })
 
+  it('syncs with the team server after signing in', async () => {
+    await expect.poll(() => page.locator('[data-test="sync-state"]').innerText(), { timeout: 10_000 }).toBe('Up to date')
+    expect(await page.locator('[data-test="sync"]').innerText()).not.toContain('not yet on this phone')
+  })
+
   it('shows a toast with the team server check', async () => {
     await page.locator('[data-test="check-server"]').click()
     const toast = page.locator('ion-toast')

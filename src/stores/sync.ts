@@ -1,0 +1,54 @@
+import type { SyncEngine, SyncStatus } from '../sync/engine'
+import { defineStore } from 'pinia'
+import { computed, ref } from 'vue'
+import { db } from '../db/database'
+import { createSyncEngine } from '../sync/engine'
+import { apiTransport } from '../sync/transport'
+import { useSessionStore } from './session'
+
+/** Unsynced changes older than this risk being lost if the browser clears old site data. */
+const staleAfterMs = 3 * 24 * 60 * 60 * 1000
+const intervalMs = 30_000
+
+/** Sync status for the shell: what waits, when it last went through, what needs the person. */
+export const useSyncStore = defineStore('sync', () => {
+  const status = ref<SyncStatus>({ state: 'idle', pending: 0, attention: 0, lastSyncedAt: null, oldestPendingAt: null, error: null })
+  const persisted = ref<boolean | null>(null)
+  const stale = computed(() => status.value.oldestPendingAt !== null && Date.now() - Date.parse(status.value.oldestPendingAt) > staleAfterMs)
+  let engine: SyncEngine | null = null
+
+  function syncNow(): Promise<void> {
+    return engine?.syncNow() ?? Promise.resolve()
+  }
+
+  /** Once, after sign-in: sync when signal returns, when the app comes back, and every 30 s. */
+  async function start(): Promise<void> {
+    if (engine)
+      return
+    const session = useSessionStore()
+    engine = createSyncEngine({
+      database: db,
+      transport: apiTransport,
+      teamIds: () => session.memberships.map(m => m.teamId),
+      onStatus: (next) => {
+        status.value = next
+      },
+    })
+    window.addEventListener('online', () => void syncNow())
+    document.addEventListener('visibilitychange', () => {
+      if (document.visibilityState === 'visible')
+        void syncNow()
+    })
+    setInterval(() => {
+      if (navigator.onLine && session.status === 'signed-in')
+        void syncNow()
+    }, intervalMs)
+    // Ask the browser not to evict this site's IndexedDB; it may still say no.
+    persisted.value = (await navigator.storage?.persist?.().catch(() => false)) ?? false
+    await engine.refreshStatus()
+    if (navigator.onLine)
+      void syncNow()
+  }
+
+  return { status, persisted, stale, start, syncNow }
+})

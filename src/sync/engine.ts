@@ -1,0 +1,199 @@
+import type { Change, MutationResult } from '../../shared/schemas/entities'
+import type { LixiviaDatabase, LocalRecord, OutboxEntry } from '../db/database'
+import { v7 as uuidv7 } from 'uuid'
+import { tableOf } from '../db/database'
+
+export interface SyncTransport {
+  push: (body: { clientId: string, mutations: Omit<OutboxEntry, 'seq' | 'createdAt' | 'sentAt' | 'rejected'>[] }) => Promise<{ results: MutationResult[] }>
+  pull: (teamId: string, since: number, limit: number) => Promise<{ changes: Change[], cursor: number, hasMore: boolean }>
+}
+
+export type SyncState = 'idle' | 'syncing' | 'waiting' | 'signed-out' | 'error'
+
+export interface SyncStatus {
+  state: SyncState
+  /** Changes on this phone the server does not have yet. */
+  pending: number
+  /** Conflicts and refusals that wait for the person. */
+  attention: number
+  lastSyncedAt: string | null
+  /** The oldest unsynced change, to warn before a browser evicts old site data. */
+  oldestPendingAt: string | null
+  error: string | null
+}
+
+/** What the transport throws: a status (0 with no network) decides between retrying and stopping. */
+export interface TransportError { status: number, message: string }
+
+class IncompleteAnswer extends Error implements TransportError {
+  readonly status = 502
+}
+const isTransportError = (error: unknown): error is TransportError => typeof error === 'object' && error !== null && 'status' in error && typeof (error as TransportError).status === 'number'
+
+export interface SyncEngineOptions {
+  database: LixiviaDatabase
+  transport: SyncTransport
+  teamIds: () => string[]
+  onStatus?: (status: SyncStatus) => void
+  batchSize?: number
+  pullLimit?: number
+  /** Waits before a retry after a network error or a 5xx (1 s, doubling to 60 s). */
+  schedule?: (retry: () => void, delayMs: number) => void
+}
+
+function wait(retry: () => void, delayMs: number): void {
+  setTimeout(retry, delayMs)
+}
+
+export function createSyncEngine(options: SyncEngineOptions) {
+  const { database, transport } = options
+  const batchSize = options.batchSize ?? 200
+  const pullLimit = options.pullLimit ?? 500
+  const schedule = options.schedule ?? wait
+  let running: Promise<void> | null = null
+  let failures = 0
+  let status: SyncStatus = { state: 'idle', pending: 0, attention: 0, lastSyncedAt: null, oldestPendingAt: null, error: null }
+
+  async function clientId(): Promise<string> {
+    const stored = await database.meta.get('clientId')
+    if (typeof stored?.value === 'string')
+      return stored.value
+    const id = uuidv7()
+    await database.meta.put({ key: 'clientId', value: id })
+    return id
+  }
+
+  async function report(change: Partial<SyncStatus>): Promise<void> {
+    const queued = await database.outbox.toArray()
+    const waiting = queued.filter(entry => !entry.rejected)
+    let conflicts = 0
+    for (const name of Object.values(tableOf))
+      conflicts += await database[name].where('sync.state').equals('conflict').count()
+    status = { ...status, ...change, pending: waiting.length, attention: conflicts + queued.length - waiting.length, oldestPendingAt: waiting[0]?.createdAt ?? null }
+    options.onStatus?.(status)
+  }
+
+  async function settle(entry: OutboxEntry, result: MutationResult | undefined): Promise<void> {
+    const table = database[tableOf[entry.entity]]
+    const record: LocalRecord | undefined = await table.get(entry.id)
+    const later = (await database.outbox.where('id').equals(entry.id).toArray()).filter(other => other.seq !== entry.seq)
+    if (!result) {
+      // No answer for it: it goes out again with the next push (the server would recognise it).
+      await database.outbox.update(entry.seq!, { sentAt: null })
+      return
+    }
+    if (result.status === 'applied') {
+      await database.outbox.delete(entry.seq!)
+      // Changes queued behind this one are now based on the rev it produced.
+      for (const other of later.filter(o => !o.rejected))
+        await database.outbox.update(other.seq!, { baseRev: result.rev ?? null })
+      if (record) {
+        const stillQueued = later.some(o => !o.rejected)
+        await table.put({ ...record, rev: result.rev ?? record.rev, sync: { state: stillQueued ? 'pending' : 'clean', baseRev: result.rev ?? null } })
+      }
+      return
+    }
+    if (result.status === 'conflict') {
+      // Both copies stay: the phone's in the record, the server's beside it, until the person picks.
+      await database.outbox.bulkDelete([entry.seq!, ...later.filter(o => !o.sentAt && !o.rejected).map(o => o.seq!)])
+      if (record)
+        await table.put({ ...record, sync: { state: 'conflict', baseRev: result.rev ?? record.sync.baseRev, server: result.server } })
+      return
+    }
+    await database.outbox.update(entry.seq!, { rejected: result, sentAt: null })
+    if (record)
+      await table.put({ ...record, sync: { ...record.sync, state: 'rejected', reason: result.reason } })
+  }
+
+  async function pushAll(): Promise<void> {
+    const id = await clientId()
+    for (;;) {
+      // One mutation per record per batch: a later one is based on the rev the earlier one gets,
+      // which is only known from its answer, so it waits for the next batch.
+      const records = new Set<string>()
+      const batch = await database.outbox.orderBy('seq').filter((entry) => {
+        if (entry.rejected || records.has(entry.id))
+          return false
+        records.add(entry.id)
+        return true
+      }).limit(batchSize).toArray()
+      if (batch.length === 0)
+        return
+      const sentAt = new Date().toISOString()
+      await database.outbox.bulkUpdate(batch.map(entry => ({ key: entry.seq!, changes: { sentAt } })))
+      const { results } = await transport.push({
+        clientId: id,
+        mutations: batch.map(({ mutationId, entity, op, id: recordId, teamId, data, baseRev }) => ({ mutationId, entity, op, id: recordId, teamId, data, baseRev })),
+      })
+      const byId = new Map(results.map(result => [result.mutationId, result]))
+      await database.transaction('rw', [database.outbox, ...Object.values(tableOf).map(name => database[name])], async () => {
+        for (const entry of batch)
+          await settle(entry, byId.get(entry.mutationId))
+      })
+      if (!batch.some(entry => byId.has(entry.mutationId)))
+        throw new IncompleteAnswer('The team server answered none of the changes sent.')
+    }
+  }
+
+  async function pullTeam(teamId: string): Promise<void> {
+    const cursorKey = `cursor:${teamId}`
+    let since = Number((await database.meta.get(cursorKey))?.value ?? 0)
+    for (let more = true; more;) {
+      const page = await transport.pull(teamId, since, pullLimit)
+      await database.transaction('rw', [database.meta, ...Object.values(tableOf).map(name => database[name])], async () => {
+        for (const change of page.changes) {
+          const table = database[tableOf[change.entity]]
+          const local: LocalRecord | undefined = await table.get(change.id)
+          // A record with changes of its own here is settled by its push, never overwritten.
+          if (local && local.sync.state !== 'clean')
+            continue
+          await table.put({ ...(change.data as LocalRecord), rev: change.rev, sync: { state: 'clean', baseRev: change.rev } })
+        }
+        await database.meta.put({ key: cursorKey, value: page.cursor })
+      })
+      since = page.cursor
+      more = page.hasMore
+    }
+  }
+
+  async function run(): Promise<void> {
+    await report({ state: 'syncing', error: null })
+    try {
+      await pushAll()
+      for (const teamId of options.teamIds())
+        await pullTeam(teamId)
+      failures = 0
+      await report({ state: 'idle', lastSyncedAt: new Date().toISOString() })
+    }
+    catch (error) {
+      // Whatever was in flight goes out again next time; the server answers repeats from memory.
+      await database.outbox.toCollection().modify((entry) => {
+        if (!entry.rejected)
+          entry.sentAt = null
+      })
+      if (isTransportError(error) && error.status === 401) {
+        await report({ state: 'signed-out', error: 'Sign in again to send the changes on this phone.' })
+        return
+      }
+      if (isTransportError(error) && error.status !== 0 && error.status < 500) {
+        await report({ state: 'error', error: error.message })
+        return
+      }
+      failures += 1
+      await report({ state: 'waiting', error: isTransportError(error) ? error.message : String(error) })
+      schedule(() => void syncNow(), Math.min(60_000, 1000 * 2 ** (failures - 1)))
+    }
+  }
+
+  /** Pushes everything queued, then pulls every team; one run at a time. */
+  function syncNow(): Promise<void> {
+    running ??= run().finally(() => {
+      running = null
+    })
+    return running
+  }
+
+  return { syncNow, status: () => status, refreshStatus: () => report({}) }
+}
+
+export type SyncEngine = ReturnType<typeof createSyncEngine>

@@ -1,0 +1,193 @@
+import type { Change, MutationResult } from '../../shared/schemas/entities'
+import type { SyncStatus, SyncTransport } from '../../src/sync/engine'
+import { afterEach, beforeEach, describe, expect, it } from 'vitest'
+import { LixiviaDatabase } from '../../src/db/database'
+import { createSyncEngine } from '../../src/sync/engine'
+import { deleteRecord, saveRecord } from '../../src/sync/outbox'
+
+const teamId = '0190a8c4-0000-7000-8000-0000000000aa'
+const userId = '0190a8c4-0000-7000-8000-000000000001'
+
+/** What a transport throws with no network (status 0, like the app's ApiError). */
+class Offline extends Error {
+  readonly status = 0
+}
+
+/** A fake of the server's contract: revs, conflicts on a stale base, refusals, repeat answers. */
+function fakeServer() {
+  const records = new Map<string, { rev: number, data: Record<string, unknown>, deleted: boolean }>()
+  const answered = new Map<string, MutationResult>()
+  let rev = 0
+  let offline = false
+  const pushes: unknown[] = []
+  const transport: SyncTransport = {
+    async push(body) {
+      if (offline)
+        throw new Offline('No network')
+      pushes.push(body)
+      return {
+        results: body.mutations.map((m) => {
+          const seen = answered.get(m.mutationId)
+          if (seen)
+            return seen
+          const current = records.get(m.id)
+          let result: MutationResult
+          if (m.data?.label === 'refuse me') {
+            result = { mutationId: m.mutationId, status: 'rejected', reason: 'label: refused by the fake' }
+          }
+          else if (current && (m.baseRev === null || current.rev > m.baseRev)) {
+            result = { mutationId: m.mutationId, status: 'conflict', rev: current.rev, server: { ...current.data, rev: current.rev } }
+          }
+          else {
+            rev += 1
+            records.set(m.id, { rev, data: { ...current?.data, ...m.data }, deleted: m.op === 'delete' })
+            result = { mutationId: m.mutationId, status: 'applied', rev }
+          }
+          answered.set(m.mutationId, result)
+          return result
+        }),
+      }
+    },
+    async pull(_team, since) {
+      if (offline)
+        throw new Offline('No network')
+      const changes: Change[] = [...records.entries()].filter(([, r]) => r.rev > since).sort((a, b) => a[1].rev - b[1].rev).map(([id, r]) => ({ entity: 'instrument', id, rev: r.rev, op: r.deleted ? 'delete' : 'put', data: { ...r.data, id, teamId, createdBy: userId, createdAt: 'x', updatedAt: 'x', rev: r.rev, deletedAt: null } }))
+      return { changes, cursor: changes.at(-1)?.rev ?? since, hasMore: false }
+    },
+  }
+  return {
+    transport,
+    records,
+    pushes,
+    setOffline: (value: boolean) => {
+      offline = value
+    },
+    /** Another phone's edit, straight into the server. */
+    editElsewhere: (id: string, data: Record<string, unknown>) => {
+      rev += 1
+      records.set(id, { rev, data: { ...records.get(id)!.data, ...data }, deleted: false })
+    },
+  }
+}
+
+let database: LixiviaDatabase
+let counter = 0
+beforeEach(() => {
+  database = new LixiviaDatabase(`lixivia-test-${counter++}`)
+})
+afterEach(async () => {
+  await database.delete()
+})
+
+const gauge = (label: string) => ({ label, readingKind: 'tds', resolution: 0.01, repeatability: 0.02 })
+
+function engineWith(server: ReturnType<typeof fakeServer>, delays: number[] = []) {
+  const seen: SyncStatus[] = []
+  const engine = createSyncEngine({ database, transport: server.transport, teamIds: () => [teamId], onStatus: s => seen.push(s), schedule: (_retry, delay) => delays.push(delay) })
+  return { engine, seen }
+}
+
+describe('saveRecord and deleteRecord', () => {
+  it('write the record and its mutation together, and fold unsent edits into one mutation', async () => {
+    const id = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Bench A') })
+    await saveRecord(database, 'instrument', { teamId, userId, id, data: { ...gauge('Bench A'), repeatability: 0.03 } })
+    const queued = await database.outbox.toArray()
+    expect(queued).toHaveLength(1)
+    expect(queued[0]).toMatchObject({ op: 'put', baseRev: null, data: { label: 'Bench A', repeatability: 0.03 } })
+    expect(await database.instruments.get(id)).toMatchObject({ label: 'Bench A', repeatability: 0.03, sync: { state: 'pending' } })
+  })
+
+  it('never edit a mutation a push may already have delivered', async () => {
+    const id = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Bench B') })
+    await database.outbox.toCollection().modify({ sentAt: new Date().toISOString() })
+    await saveRecord(database, 'instrument', { teamId, userId, id, data: { label: 'Bench B2' } })
+    const queued = await database.outbox.orderBy('seq').toArray()
+    expect(queued.map(entry => entry.data)).toEqual([gauge('Bench B'), { label: 'Bench B2' }])
+  })
+
+  it('drop a record that never reached the server, with its queue', async () => {
+    const id = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Typo') })
+    await deleteRecord(database, 'instrument', id)
+    expect(await database.instruments.get(id)).toBeUndefined()
+    expect(await database.outbox.count()).toBe(0)
+  })
+})
+
+describe('createSyncEngine', () => {
+  it('pushes the outbox and marks records clean with the server\'s rev', async () => {
+    const server = fakeServer()
+    const { engine, seen } = engineWith(server)
+    const id = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Bench C') })
+    await engine.syncNow()
+    expect(await database.outbox.count()).toBe(0)
+    expect(await database.instruments.get(id)).toMatchObject({ rev: 1, sync: { state: 'clean', baseRev: 1 } })
+    expect(seen.at(-1)).toMatchObject({ state: 'idle', pending: 0, attention: 0 })
+  })
+
+  it('bases an edit queued behind an in-flight create on the rev the create got', async () => {
+    const server = fakeServer()
+    const { engine } = engineWith(server)
+    const id = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Bench D') })
+    await database.outbox.toCollection().modify({ sentAt: new Date().toISOString() })
+    await saveRecord(database, 'instrument', { teamId, userId, id, data: { label: 'Bench D, recalibrated' } })
+    await engine.syncNow()
+    expect(server.records.get(id)?.data.label).toBe('Bench D, recalibrated')
+    expect(await database.instruments.get(id)).toMatchObject({ sync: { state: 'clean', baseRev: 2 } })
+  })
+
+  it('keeps both copies of a conflict for the person to choose', async () => {
+    const server = fakeServer()
+    const { engine, seen } = engineWith(server)
+    const id = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Bench E') })
+    await engine.syncNow()
+    server.editElsewhere(id, { label: 'Renamed on another phone' })
+    await saveRecord(database, 'instrument', { teamId, userId, id, data: { label: 'Renamed here' } })
+    await engine.syncNow()
+    const record = await database.instruments.get(id)
+    expect(record).toMatchObject({ label: 'Renamed here', sync: { state: 'conflict', server: { label: 'Renamed on another phone' } } })
+    expect(seen.at(-1)).toMatchObject({ pending: 0, attention: 1 })
+  })
+
+  it('keeps a refused change with its reason, and still sends the ones behind it', async () => {
+    const server = fakeServer()
+    const { engine, seen } = engineWith(server)
+    const refused = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('refuse me') })
+    const fine = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Bench F') })
+    await engine.syncNow()
+    expect(await database.instruments.get(refused)).toMatchObject({ sync: { state: 'rejected', reason: 'label: refused by the fake' } })
+    expect((await database.outbox.toArray())[0]).toMatchObject({ id: refused, rejected: { status: 'rejected' } })
+    expect(server.records.has(fine)).toBe(true)
+    expect(seen.at(-1)).toMatchObject({ pending: 0, attention: 1 })
+    // A later sync does not send the refused change again on its own.
+    const pushesBefore = server.pushes.length
+    await engine.syncNow()
+    expect(server.pushes.length).toBe(pushesBefore)
+  })
+
+  it('waits and retries with growing delays when there is no network, losing nothing', async () => {
+    const server = fakeServer()
+    const delays: number[] = []
+    const { engine, seen } = engineWith(server, delays)
+    const id = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Bench G') })
+    server.setOffline(true)
+    await engine.syncNow()
+    await engine.syncNow()
+    expect(delays).toEqual([1000, 2000])
+    expect(seen.at(-1)).toMatchObject({ state: 'waiting', pending: 1 })
+    expect((await database.outbox.toArray())[0]!.sentAt).toBeNull()
+    server.setOffline(false)
+    await engine.syncNow()
+    expect(server.records.get(id)?.data.label).toBe('Bench G')
+  })
+
+  it('pulls the team\'s changes after its cursor, without overwriting local edits', async () => {
+    const server = fakeServer()
+    const { engine } = engineWith(server)
+    const id = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Bench H') })
+    await engine.syncNow()
+    server.editElsewhere(id, { notes: 'lens replaced' })
+    await engine.syncNow()
+    expect(await database.instruments.get(id)).toMatchObject({ notes: 'lens replaced', sync: { state: 'clean', baseRev: 2 } })
+    expect((await database.meta.get(`cursor:${teamId}`))?.value).toBe(2)
+  })
+})
