@@ -7,7 +7,7 @@ import type { TeamsService } from './teams.service'
 import { and, asc, eq, gt, inArray, isNull } from 'drizzle-orm'
 import { BrewingInputError } from '../../shared/brewing'
 import { maxMutationsPerPush, MutationSchema, PullQuerySchema, PushBodySchema } from '../../shared/schemas/entities'
-import { calibrations, entries, readings, rounds, syncMutations, teamSyncState } from '../db/schema'
+import { readings, rounds, syncMutations, teamSyncState } from '../db/schema'
 import { HttpError } from '../http-error'
 import { deriveBrew, deriveCalibration } from '../sync/derive'
 import { registry } from '../sync/registry'
@@ -49,22 +49,49 @@ export interface SyncHooks {
 export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: SyncHooks }) {
   const { db } = deps
 
-  async function find(tx: Tx, entity: EntityName, id: string, lock = false): Promise<Row | undefined> {
+  /**
+   * One push's view of the records: rows read once (locked) and cached, new rows buffered and
+   * written together at the end, so a batch costs a few queries instead of several per mutation.
+   */
+  interface Batch {
+    tx: Tx
+    rows: Map<string, Row>
+    inserts: Map<string, { entity: EntityName, row: Row }>
+  }
+  const key = (entity: EntityName, id: string): string => `${entity}:${id}`
+
+  async function find(batch: Batch, entity: EntityName, id: string): Promise<Row | undefined> {
+    const cached = batch.rows.get(key(entity, id))
+    if (cached || batch.rows.has(key(entity, id)))
+      return cached
     const table = registry[entity].table
-    const query = tx.select().from(table).where(eq(table.id, id))
-    const [row] = lock ? await query.for('update') : await query
+    const [row] = await batch.tx.select().from(table).where(eq(table.id, id))
+    batch.rows.set(key(entity, id), row as Row | undefined as Row)
     return row as Row | undefined
   }
 
-  async function roundSignedOff(tx: Tx, roundId: unknown): Promise<boolean> {
+  /** Reads and locks every record the batch touches, one query per entity. */
+  async function preload(batch: Batch, mutations: Mutation[]): Promise<void> {
+    const ids = new Map<EntityName, Set<string>>()
+    for (const m of mutations)
+      ids.set(m.entity, (ids.get(m.entity) ?? new Set()).add(m.id))
+    for (const [entity, set] of ids) {
+      const table = registry[entity].table
+      const found = await batch.tx.select().from(table).where(inArray(table.id, [...set])).for('update')
+      const byId = new Map(found.map(row => [row.id, row as Row]))
+      for (const id of set)
+        batch.rows.set(key(entity, id), byId.get(id) as Row)
+    }
+  }
+
+  async function roundSignedOff(batch: Batch, roundId: unknown): Promise<boolean> {
     if (typeof roundId !== 'string')
       return false
-    const [round] = await tx.select({ signedOffAt: rounds.signedOffAt }).from(rounds).where(eq(rounds.id, roundId))
-    return Boolean(round?.signedOffAt)
+    return Boolean((await find(batch, 'round', roundId))?.signedOffAt)
   }
 
   /** A record inside a signed-off round (the round, its entries, their brews and readings) is frozen. */
-  async function frozenReason(tx: Tx, entity: EntityName, id: string, data: Record<string, unknown>): Promise<string | null> {
+  async function frozenReason(batch: Batch, entity: EntityName, id: string, data: Record<string, unknown>): Promise<string | null> {
     const reason = 'This round is signed off: its results can no longer change. Ask the head judge if a correction is needed.'
     let roundId: unknown = null
     if (entity === 'round') {
@@ -74,25 +101,22 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
       roundId = data.roundId
     }
     else if (entity === 'brew' || entity === 'reading') {
-      const brew = entity === 'brew' ? { data } : await find(tx, 'brew', data.brewId as string)
+      const brew = entity === 'brew' ? { data } : await find(batch, 'brew', data.brewId as string)
       const context = brew?.data.context as { kind?: string, refId?: string } | undefined
-      if (context?.kind === 'entry' && context.refId) {
-        const [entry] = await tx.select({ roundId: entries.roundId }).from(entries).where(eq(entries.id, context.refId))
-        roundId = entry?.roundId
-      }
+      if (context?.kind === 'entry' && context.refId)
+        roundId = (await find(batch, 'entry', context.refId))?.data.roundId
     }
-    return (await roundSignedOff(tx, roundId)) ? reason : null
+    return (await roundSignedOff(batch, roundId)) ? reason : null
   }
 
-  async function apply(tx: Tx, m: Mutation, role: Role, userId: string, nextRev: () => number, touched: Map<string, { rev: number | null }>): Promise<MutationResult> {
+  async function apply(batch: Batch, m: Mutation, role: Role, userId: string, nextRev: () => number, touched: Map<string, { rev: number | null }>): Promise<MutationResult> {
     const definition = registry[m.entity]
-    const table = definition.table
     const rejected = (reason: string): MutationResult => ({ mutationId: m.mutationId, status: 'rejected', reason })
     const applied = (rev: number): MutationResult => ({ mutationId: m.mutationId, status: 'applied', rev })
     if (role === 'viewer')
       return rejected('Viewers can read the team\'s records but not change them.')
 
-    const current = await find(tx, m.entity, m.id, true)
+    const current = await find(batch, m.entity, m.id)
     if (current && current.teamId !== m.teamId)
       return rejected('This record belongs to another team.')
     if (current && role === 'member' && current.createdBy !== userId)
@@ -108,11 +132,11 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
         return applied(current.rev)
       if (m.baseRev !== null && current.rev > m.baseRev)
         return conflict()
-      const frozen = await frozenReason(tx, m.entity, m.id, current.data)
+      const frozen = await frozenReason(batch, m.entity, m.id, current.data)
       if (frozen)
         return rejected(frozen)
       const rev = nextRev()
-      await tx.update(table).set({ deletedAt: new Date(), updatedAt: new Date(), rev }).where(eq(table.id, m.id))
+      await write(batch, m.entity, { ...current, deletedAt: new Date(), updatedAt: new Date(), rev })
       return applied(rev)
     }
 
@@ -136,11 +160,11 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
         return conflict()
     }
     for (const [entity, parentId] of definition.parents(data)) {
-      const parent = await find(tx, entity, parentId)
+      const parent = await find(batch, entity, parentId)
       if (!parent || parent.teamId !== m.teamId || parent.deletedAt)
         return rejected(`The ${entity} this record belongs to is not on the server.`)
     }
-    const frozen = await frozenReason(tx, m.entity, m.id, data)
+    const frozen = await frozenReason(batch, m.entity, m.id, data)
     if (frozen)
       return rejected(frozen)
 
@@ -158,10 +182,8 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
     const rev = nextRev()
     const fieldRevs = { ...current?.fieldRevs, ...Object.fromEntries(changed.map(key => [key, rev])) }
     const columns = { data, derived, fieldRevs, rev, updatedAt: new Date(), ...definition.references(data) }
-    if (current)
-      await tx.update(table).set(columns).where(eq(table.id, m.id))
-    else
-      await tx.insert(table).values({ id: m.id, teamId: m.teamId, createdBy: userId, ...columns })
+    const now = new Date()
+    await write(batch, m.entity, current ? { ...current, ...columns } : { id: m.id, teamId: m.teamId, createdBy: userId, createdAt: now, deletedAt: null, ...columns } as Row)
     if (m.entity === 'brew')
       touched.set(m.id, { rev })
     else if (m.entity === 'reading' && !touched.has(data.brewId as string))
@@ -169,24 +191,66 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
     return applied(rev)
   }
 
-  /** Recomputes a brew's strength and yield from its readings; a changed result is a new rev. */
-  async function rederiveBrew(tx: Tx, brewId: string, revInBatch: number | null, nextRev: () => number): Promise<void> {
-    const brew = await find(tx, 'brew', brewId, true)
-    if (!brew)
+  /** A changed or new row: new ones wait in the batch's buffer, existing ones are updated now. */
+  async function write(batch: Batch, entity: EntityName, row: Row): Promise<void> {
+    const k = key(entity, row.id)
+    const existed = batch.rows.get(k) && !batch.inserts.has(k)
+    batch.rows.set(k, row)
+    if (!existed) {
+      batch.inserts.set(k, { entity, row })
       return
-    const values = (await tx.select({ data: readings.data }).from(readings).where(and(eq(readings.brewId, brewId), isNull(readings.deletedAt)))).map(r => r.data.value as number)
-    let calibration = null
-    if (typeof brew.data.calibrationId === 'string') {
-      const [row] = await tx.select().from(calibrations).where(eq(calibrations.id, brew.data.calibrationId))
-      const fit = (row?.derived as { fit?: unknown } | null)?.fit
-      if (row && fit)
-        calibration = { fit: fit as never, standardUnit: row.data.standardUnit as 'brix' | 'tds' }
     }
-    const derived = deriveBrew(brew.data, values, calibration)
-    if (same(derived, brew.derived))
+    const { id, teamId: _team, createdBy: _by, createdAt: _at, ...changes } = row
+    const table = registry[entity].table
+    await batch.tx.update(table).set(changes).where(eq(table.id, id))
+  }
+
+  /** Writes the buffered new rows, one multi-row INSERT per table and 500 rows at most each. */
+  async function flush(batch: Batch): Promise<void> {
+    const byEntity = new Map<EntityName, Row[]>()
+    for (const { entity, row } of batch.inserts.values())
+      byEntity.set(entity, [...(byEntity.get(entity) ?? []), row])
+    for (const [entity, rows] of byEntity) {
+      for (let i = 0; i < rows.length; i += 500)
+        await batch.tx.insert(registry[entity].table).values(rows.slice(i, i + 500))
+    }
+    batch.inserts.clear()
+  }
+
+  /**
+   * Recomputes the strength and yield of the brews a batch touched, from all their readings (one
+   * query for those already stored); a changed result of a stored brew is a new rev.
+   */
+  async function rederive(batch: Batch, touched: Map<string, { rev: number | null }>, nextRev: () => number): Promise<void> {
+    if (touched.size === 0)
       return
-    const table = registry.brew.table
-    await tx.update(table).set({ derived, rev: revInBatch ?? nextRev(), updatedAt: new Date() }).where(eq(table.id, brewId))
+    const brewIds = [...touched.keys()]
+    const values = new Map<string, number[]>(brewIds.map(id => [id, []]))
+    const stored = await batch.tx.select({ id: readings.id, brewId: readings.brewId, data: readings.data }).from(readings).where(and(inArray(readings.brewId, brewIds), isNull(readings.deletedAt)))
+    const seen = new Set<string>()
+    for (const reading of stored) {
+      seen.add(reading.id)
+      values.get(reading.brewId!)?.push(reading.data.value as number)
+    }
+    for (const { entity, row } of batch.inserts.values()) {
+      if (entity === 'reading' && !seen.has(row.id))
+        values.get(row.data.brewId as string)?.push(row.data.value as number)
+    }
+    for (const [brewId, { rev }] of touched) {
+      const brew = await find(batch, 'brew', brewId)
+      if (!brew)
+        continue
+      let calibration = null
+      if (typeof brew.data.calibrationId === 'string') {
+        const row = await find(batch, 'calibration', brew.data.calibrationId)
+        const fit = (row?.derived as { fit?: unknown } | null)?.fit
+        if (row && fit)
+          calibration = { fit: fit as never, standardUnit: row.data.standardUnit as 'brix' | 'tds' }
+      }
+      const derived = deriveBrew(brew.data, values.get(brewId) ?? [], calibration)
+      if (!same(derived, brew.derived))
+        await write(batch, 'brew', { ...brew, derived, rev: rev ?? nextRev(), updatedAt: new Date() })
+    }
   }
 
   return {
@@ -206,12 +270,27 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
         // Lock each team's counter (in a fixed order, so two pushes cannot deadlock): a second push
         // to the same team waits here until this one commits, so revs commit in the order given.
         const counters = new Map<string, number>()
+        const revsFor = (teamId: string) => (): number => {
+          const rev = counters.get(teamId)! + 1
+          counters.set(teamId, rev)
+          return rev
+        }
         for (const teamId of [...roles.keys()].sort()) {
           await tx.insert(teamSyncState).ignore().values({ teamId, lastRev: 0 })
           const [state] = await tx.select().from(teamSyncState).where(eq(teamSyncState.teamId, teamId)).for('update')
           counters.set(teamId, state!.lastRev)
         }
+        const batch: Batch = { tx, rows: new Map(), inserts: new Map() }
+        const wellFormed = items.flatMap(item => (item.parsed.success ? [item.parsed.data] : []))
+        const answered = new Map<string, MutationResult>()
+        if (wellFormed.length > 0) {
+          const seen = await tx.select().from(syncMutations).where(and(eq(syncMutations.clientId, clientId), inArray(syncMutations.mutationId, wellFormed.map(m => m.mutationId))))
+          for (const row of seen)
+            answered.set(row.mutationId, row.result as MutationResult)
+          await preload(batch, wellFormed.filter(m => !answered.has(m.mutationId)))
+        }
         const touchedByTeam = new Map<string, Map<string, { rev: number | null }>>()
+        const fresh: { mutationId: string, result: MutationResult }[] = []
         const results: MutationResult[] = []
         for (const item of items) {
           if (!item.parsed.success) {
@@ -220,31 +299,24 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
             continue
           }
           const m = item.parsed.data
-          const [seen] = await tx.select().from(syncMutations).where(and(eq(syncMutations.clientId, clientId), eq(syncMutations.mutationId, m.mutationId)))
-          if (seen) {
-            results.push(seen.result as MutationResult)
+          const earlier = answered.get(m.mutationId)
+          if (earlier) {
+            results.push(earlier)
             continue
-          }
-          const nextRev = (): number => {
-            const rev = counters.get(m.teamId)! + 1
-            counters.set(m.teamId, rev)
-            return rev
           }
           const touched = touchedByTeam.get(m.teamId) ?? new Map()
           touchedByTeam.set(m.teamId, touched)
-          const result = await apply(tx, m, roles.get(m.teamId)!, userId, nextRev, touched)
-          await tx.insert(syncMutations).values({ clientId, mutationId: m.mutationId, userId, result })
+          const result = await apply(batch, m, roles.get(m.teamId)!, userId, revsFor(m.teamId), touched)
+          // The same mutation twice in one batch is answered once.
+          answered.set(m.mutationId, result)
+          fresh.push({ mutationId: m.mutationId, result })
           results.push(result)
         }
-        for (const [teamId, touched] of touchedByTeam) {
-          const nextRev = (): number => {
-            const rev = counters.get(teamId)! + 1
-            counters.set(teamId, rev)
-            return rev
-          }
-          for (const [brewId, { rev }] of touched)
-            await rederiveBrew(tx, brewId, rev, nextRev)
-        }
+        for (const [teamId, touched] of touchedByTeam)
+          await rederive(batch, touched, revsFor(teamId))
+        await flush(batch)
+        for (let i = 0; i < fresh.length; i += 500)
+          await tx.insert(syncMutations).values(fresh.slice(i, i + 500).map(({ mutationId, result }) => ({ clientId, mutationId, userId, result })))
         for (const [teamId, lastRev] of counters)
           await tx.update(teamSyncState).set({ lastRev }).where(eq(teamSyncState.teamId, teamId))
         await deps.hooks?.beforeCommit?.()
