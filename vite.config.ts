@@ -112,6 +112,19 @@ export default defineConfig({
       {
         extends: true,
         test: {
+          // Phones with their own IndexedDB (fake-indexeddb) syncing with the real server.
+          name: 'model',
+          environment: 'node',
+          include: ['tests/model/**/*.test.ts'],
+          globalSetup: ['tests/server/global-setup.ts'],
+          setupFiles: ['tests/client/setup.ts'],
+          testTimeout: 240_000,
+          hookTimeout: 60_000,
+        },
+      },
+      {
+        extends: true,
+        test: {
           name: 'client',
           environment: 'happy-dom',
           include: ['tests/client/**/*.test.ts'],
