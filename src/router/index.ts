@@ -18,6 +18,7 @@ export const routes: RouteRecordRaw[] = [
     ],
   },
   { path: '/crew/members', name: 'team-members', component: () => import('../views/TeamMembersPage.vue') },
+  { path: '/crew/attention', name: 'sync-attention', component: () => import('../views/SyncAttentionPage.vue') },
   { path: '/join', name: 'join', component: () => import('../views/JoinTeamPage.vue') },
   { path: '/sign-in', name: 'sign-in', component: () => import('../views/SignInPage.vue'), meta: { guest: true } },
   { path: '/sign-up', name: 'sign-up', component: () => import('../views/SignUpPage.vue'), meta: { guest: true } },

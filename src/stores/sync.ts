@@ -50,5 +50,10 @@ export const useSyncStore = defineStore('sync', () => {
       void syncNow()
   }
 
-  return { status, persisted, stale, start, syncNow }
+  /** Recounts what waits (after the person settled a conflict or a refusal on this phone). */
+  async function refresh(): Promise<void> {
+    await engine?.refreshStatus()
+  }
+
+  return { status, persisted, stale, start, syncNow, refresh }
 })

@@ -55,6 +55,13 @@ describe('the app shell', () => {
     expect(await page.locator('[data-test="sync"]').innerText()).not.toContain('not yet on this phone')
   })
 
+  it('has nothing waiting for a decision on a fresh phone', async () => {
+    await page.goto('/crew/attention')
+    await page.locator('[data-test="nothing-waiting"]').waitFor()
+    await page.goto('/crew')
+    await waitForTitle(page, 'Crew')
+  })
+
   it('shows a toast with the team server check', async () => {
     await page.locator('[data-test="check-server"]').click()
     const toast = page.locator('ion-toast')

@@ -1,0 +1,67 @@
+import type { Change, MutationResult } from '../../shared/schemas/entities'
+import type { SyncTransport } from '../../src/sync/engine'
+
+export const teamId = '0190a8c4-0000-7000-8000-0000000000aa'
+export const userId = '0190a8c4-0000-7000-8000-000000000001'
+
+/** What a transport throws with no network (status 0, like the app's ApiError). */
+class Offline extends Error {
+  readonly status = 0
+}
+
+/** A fake of the server's contract: revs, conflicts on a stale base, refusals, repeat answers. */
+export function fakeServer() {
+  const records = new Map<string, { rev: number, data: Record<string, unknown>, deleted: boolean }>()
+  const answered = new Map<string, MutationResult>()
+  let rev = 0
+  let offline = false
+  const pushes: unknown[] = []
+  const transport: SyncTransport = {
+    async push(body) {
+      if (offline)
+        throw new Offline('No network')
+      pushes.push(body)
+      return {
+        results: body.mutations.map((m) => {
+          const seen = answered.get(m.mutationId)
+          if (seen)
+            return seen
+          const current = records.get(m.id)
+          let result: MutationResult
+          if (m.data?.label === 'refuse me') {
+            result = { mutationId: m.mutationId, status: 'rejected', reason: 'label: refused by the fake' }
+          }
+          else if (current && (m.baseRev === null || current.rev > m.baseRev)) {
+            result = { mutationId: m.mutationId, status: 'conflict', rev: current.rev, server: { ...current.data, id: m.id, teamId: m.teamId, rev: current.rev } }
+          }
+          else {
+            rev += 1
+            records.set(m.id, { rev, data: { ...current?.data, ...m.data }, deleted: m.op === 'delete' })
+            result = { mutationId: m.mutationId, status: 'applied', rev }
+          }
+          answered.set(m.mutationId, result)
+          return result
+        }),
+      }
+    },
+    async pull(_team, since) {
+      if (offline)
+        throw new Offline('No network')
+      const changes: Change[] = [...records.entries()].filter(([, r]) => r.rev > since).sort((a, b) => a[1].rev - b[1].rev).map(([id, r]) => ({ entity: 'instrument', id, rev: r.rev, op: r.deleted ? 'delete' : 'put', data: { ...r.data, id, teamId, createdBy: userId, createdAt: 'x', updatedAt: 'x', rev: r.rev, deletedAt: null } }))
+      return { changes, cursor: changes.at(-1)?.rev ?? since, hasMore: false }
+    },
+  }
+  return {
+    transport,
+    records,
+    pushes,
+    setOffline: (value: boolean) => {
+      offline = value
+    },
+    /** Another phone's edit, straight into the server. */
+    editElsewhere: (id: string, data: Record<string, unknown>) => {
+      rev += 1
+      records.set(id, { rev, data: { ...records.get(id)!.data, ...data }, deleted: false })
+    },
+  }
+}
