@@ -45,17 +45,24 @@ export async function takeTheirs(database: LixiviaDatabase, entity: EntityName, 
   })
 }
 
+/** Takes a refused change out of the outbox; with its record, unless the record is gone. Call in a transaction. */
+async function takeRefused(database: LixiviaDatabase, seq: number) {
+  const entry = await database.outbox.get(seq)
+  if (!entry?.rejected)
+    return undefined
+  const table = database[tableOf[entry.entity]]
+  const record = await table.get(entry.id)
+  await database.outbox.delete(seq)
+  return record ? { entry, table, record } : undefined
+}
+
 /** Refused → send the record as it now is on the phone (after the person fixed it). */
 export async function resendRejected(database: LixiviaDatabase, seq: number): Promise<void> {
   await database.transaction('rw', tablesOf(database), async () => {
-    const entry = await database.outbox.get(seq)
-    if (!entry?.rejected)
+    const taken = await takeRefused(database, seq)
+    if (!taken)
       return
-    const table = database[tableOf[entry.entity]]
-    const record = await table.get(entry.id)
-    await database.outbox.delete(seq)
-    if (!record)
-      return
+    const { entry, table, record } = taken
     await table.put({ ...record, sync: { state: 'pending', baseRev: record.sync.baseRev } })
     await database.outbox.add({
       mutationId: uuidv7(),
@@ -77,14 +84,10 @@ export async function resendRejected(database: LixiviaDatabase, seq: number): Pr
  */
 export async function discardRejected(database: LixiviaDatabase, seq: number): Promise<void> {
   await database.transaction('rw', tablesOf(database), async () => {
-    const entry = await database.outbox.get(seq)
-    if (!entry?.rejected)
+    const taken = await takeRefused(database, seq)
+    if (!taken)
       return
-    const table = database[tableOf[entry.entity]]
-    const record = await table.get(entry.id)
-    await database.outbox.delete(seq)
-    if (!record)
-      return
+    const { entry, table, record } = taken
     if (record.rev === null) {
       const rest = await database.outbox.where('id').equals(entry.id).toArray()
       await database.outbox.bulkDelete(rest.map(other => other.seq!))
