@@ -1,4 +1,5 @@
 import { BrewingInputError, requireFinite, requirePositive, requireTdsPercent } from './errors'
+import { roundHalfUp } from './rounding'
 
 export interface Range { min: number, max: number }
 
@@ -84,8 +85,10 @@ const headlines: Record<Position, Record<Position, string>> = {
 export function zoneVerdict(zone: Zone, measured: { tdsPercent: number, yieldPercent: number }): ZoneVerdict {
   const tds = requireTdsPercent(measured.tdsPercent)
   const ey = requirePositive(measured.yieldPercent, 'yieldPercent', 'The extraction yield')
-  const strength = place(tds, zone.tdsPercent)
-  const extraction = place(ey, zone.yieldPercent)
+  // Judged at the precision shown (TDS 2 decimals, EY 1): a mean of 1.3500000000000003 reads 1.35
+  // and sits on the zone's edge, inside, as the person sees it.
+  const strength = place(roundHalfUp(tds, 2), zone.tdsPercent)
+  const extraction = place(roundHalfUp(ey, 1), zone.yieldPercent)
   const targetTds = (zone.tdsPercent.min + zone.tdsPercent.max) / 2
   const beverageRatio = { current: ey / tds, target: ey / targetTds }
 

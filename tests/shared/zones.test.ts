@@ -74,6 +74,13 @@ describe('zoneVerdict', () => {
   it('counts the zone\'s edges as inside', () => {
     expect(zoneVerdict(us, { tdsPercent: 1.15, yieldPercent: 22 }).inZone).toBe(true)
   })
+
+  it('judges at the precision shown, so float noise on an edge stays inside', () => {
+    const mean = (1.34 + 1.35 + 1.36) / 3
+    expect(mean).toBeGreaterThan(1.35)
+    expect(zoneVerdict(us, { tdsPercent: mean, yieldPercent: 22.04 }).inZone).toBe(true)
+    expect(zoneVerdict(us, { tdsPercent: 1.355, yieldPercent: 20 }).strength).toBe('high')
+  })
 })
 
 describe('defineZone', () => {

@@ -1,0 +1,86 @@
+import type { Browser, BrowserContext, Page } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { fillField, launchBrowser, onScreen, phoneContext, screenshot, signIn, watchErrors } from './browser'
+
+// Seeded demo accounts (server/db/seed.ts): a member measures, a lead on another phone reads.
+const member = { email: 'mats@kestrel-quay.test', password: 'kestrel-demo-2026' }
+const lead = { email: 'tobiah@kestrel-quay.test', password: 'kestrel-demo-2026' }
+
+let browser: Browser
+let context: BrowserContext
+let page: Page
+let errors: string[]
+
+beforeAll(async () => {
+  browser = await launchBrowser()
+  context = await phoneContext(browser)
+  page = await context.newPage()
+  errors = watchErrors(page)
+  await signIn(page, member)
+})
+afterAll(async () => {
+  await browser?.close()
+})
+
+async function addReading(p: Page, value: string): Promise<void> {
+  await fillField(p, 'reading', value)
+  await onScreen(p, 'add-reading').click()
+}
+
+describe('measuring a brew on the Bench', () => {
+  it('computes strength, extraction and the verdict live from gross and tare weights and three readings', async () => {
+    await page.goto('/bench')
+    await onScreen(page, 'result').getByText('Add at least one reading.').waitFor()
+    // The handbook's worked pour-over: 15.0 g of coffee, 240.0 g of beverage, 1.35 %TDS → 21.6 %.
+    await fillField(page, 'dose-gross', '27.5')
+    await fillField(page, 'dose-tare', '12.5')
+    await fillField(page, 'beverage-gross', '652.6')
+    await fillField(page, 'beverage-tare', '412.6')
+    await addReading(page, '1.34')
+    await addReading(page, '1.35')
+    await addReading(page, '1,36')
+    await expect.poll(() => onScreen(page, 'tds').innerText()).toBe('1.35')
+    expect(await onScreen(page, 'ey').innerText()).toBe('21.6')
+    expect(await onScreen(page, 'net').innerText()).toContain('dose 15.0 g, beverage 240.0 g')
+    expect(await onScreen(page, 'verdict').innerText()).toContain('In the zone')
+    await screenshot(page, 'bench-result')
+  })
+
+  it('flags a field that is not a number beside it', async () => {
+    await fillField(page, 'dose-tare', '12..5')
+    await onScreen(page, 'dose-tare').getByText('Type a number of grams').waitFor()
+    await fillField(page, 'dose-tare', '12.5')
+  })
+
+  it('saves offline at once, keeps it across a reload and a new page, and sends it when signal returns', async () => {
+    await context.setOffline(true)
+    await onScreen(page, 'save-brew').click()
+    const row = () => onScreen(page, 'recent-brews').locator('ion-item').first()
+    await expect.poll(() => row().innerText()).toContain('Waiting to sync')
+    expect(await row().innerText()).toContain('1.35 %TDS · 21.6 % EY')
+    await page.reload()
+    await expect.poll(() => row().innerText()).toContain('Waiting to sync')
+    await page.close()
+    page = await context.newPage()
+    errors = watchErrors(page)
+    await page.goto('/bench')
+    await expect.poll(() => row().innerText()).toContain('Waiting to sync')
+    await screenshot(page, 'bench-offline-waiting')
+
+    await context.setOffline(false)
+    await expect.poll(() => row().innerText(), { timeout: 15_000 }).toContain('Synced')
+  })
+
+  it('reaches another member of the team on their own phone', async () => {
+    const other = await (await phoneContext(browser)).newPage()
+    await signIn(other, lead)
+    await other.goto('/bench')
+    const row = onScreen(other, 'recent-brews').locator('ion-item').first()
+    await expect.poll(() => row.innerText(), { timeout: 15_000 }).toContain('1.35 %TDS · 21.6 % EY')
+    expect(await row.innerText()).toContain('Synced')
+  })
+
+  it('threw no uncaught errors', () => {
+    expect(errors).toEqual([])
+  })
+})
