@@ -32,7 +32,9 @@ export function ensureClientBuilt(root: string): void {
   if (builtAt > changedAt)
     return
   console.log(builtAt ? 'The client sources changed since the last build: building ...' : 'Building the client ...')
-  const result = spawnSync(process.execPath, [viteBin(root), 'build', '--logLevel', 'warn'], { cwd: root, stdio: 'inherit' })
+  // The client is always built for production: with NODE_ENV=development in the environment (as in
+  // development or the browser tests) Vite would bundle Vue's development build, 40 KB gzip heavier.
+  const result = spawnSync(process.execPath, [viteBin(root), 'build', '--logLevel', 'warn'], { cwd: root, stdio: 'inherit', env: { ...process.env, NODE_ENV: 'production' } })
   if (result.status !== 0)
     throw new SetupError('The client build failed (see above); fix it, or run `npm run build` to see the whole output.')
 }
