@@ -80,6 +80,24 @@ describe('measuring a brew on the Bench', () => {
     expect(await row.innerText()).toContain('Synced')
   })
 
+  it('lists it in the Ledger, filters it and exports the list as CSV', async () => {
+    await page.goto('/ledger')
+    const list = onScreen(page, 'ledger-list')
+    await expect.poll(() => list.innerText()).toContain('1.35 %TDS · 21.6 % EY')
+    // The demo team's only brew is in the US zone, so outside it nothing matches.
+    await onScreen(page, 'filter-zone').locator('ion-segment-button', { hasText: 'Outside' }).click()
+    await page.getByText('No brew matches these filters.').waitFor()
+    expect(await list.locator('ion-item').count()).toBe(0)
+    await onScreen(page, 'filter-zone').locator('ion-segment-button', { hasText: 'In zone' }).click()
+    await expect.poll(() => list.locator('ion-item').count()).toBeGreaterThan(0)
+    expect(await list.innerText()).not.toContain('Outside')
+    const [download] = await Promise.all([page.waitForEvent('download'), onScreen(page, 'export-csv').click()])
+    const csv = (await import('node:fs')).readFileSync((await download.path())!, 'utf8')
+    expect(csv.split('\n')[0]).toContain('TDS (%),extraction yield (%),dose (g),beverage (g)')
+    expect(csv).toContain('1.35,21.6,15,240')
+    await screenshot(page, 'ledger')
+  })
+
   it('threw no uncaught errors', () => {
     expect(errors).toEqual([])
   })
