@@ -17,6 +17,7 @@ export const routes: RouteRecordRaw[] = [
       { path: 'crew', name: 'crew', component: () => import('../views/CrewPage.vue') },
     ],
   },
+  { path: '/gauges/:id', name: 'instrument', component: () => import('../views/InstrumentPage.vue') },
   { path: '/crew/members', name: 'team-members', component: () => import('../views/TeamMembersPage.vue') },
   { path: '/crew/attention', name: 'sync-attention', component: () => import('../views/SyncAttentionPage.vue') },
   { path: '/join', name: 'join', component: () => import('../views/JoinTeamPage.vue') },
