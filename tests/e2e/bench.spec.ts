@@ -98,6 +98,15 @@ describe('measuring a brew on the Bench', () => {
     await screenshot(page, 'ledger')
   })
 
+  it('plots it on the brewing control chart against the team\'s zone', async () => {
+    await page.goto('/zone')
+    const chart = onScreen(page, 'control-chart')
+    await expect.poll(() => chart.getAttribute('aria-label')).toBe('Brewing control chart: 1 brews against the US drip standard')
+    await chart.locator('canvas').waitFor()
+    expect(await page.getByText('1.15–1.35 %TDS, 18–22 % extraction').count()).toBe(1)
+    await screenshot(page, 'zone-chart')
+  })
+
   it('threw no uncaught errors', () => {
     expect(errors).toEqual([])
   })
