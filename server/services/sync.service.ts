@@ -49,6 +49,13 @@ export interface SyncHooks {
 export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: SyncHooks }) {
   const { db } = deps
 
+  /** Locks the team's counter row until the transaction ends, and returns its last rev. */
+  async function lockCounter(tx: Tx, teamId: string): Promise<number> {
+    await tx.insert(teamSyncState).ignore().values({ teamId, lastRev: 0 })
+    const [state] = await tx.select().from(teamSyncState).where(eq(teamSyncState.teamId, teamId)).for('update')
+    return state!.lastRev
+  }
+
   /**
    * One push's view of the records: rows read once (locked) and cached, new rows buffered and
    * written together at the end, so a batch costs a few queries instead of several per mutation.
@@ -276,9 +283,7 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
           return rev
         }
         for (const teamId of [...roles.keys()].sort()) {
-          await tx.insert(teamSyncState).ignore().values({ teamId, lastRev: 0 })
-          const [state] = await tx.select().from(teamSyncState).where(eq(teamSyncState.teamId, teamId)).for('update')
-          counters.set(teamId, state!.lastRev)
+          counters.set(teamId, await lockCounter(tx, teamId))
         }
         const batch: Batch = { tx, rows: new Map(), inserts: new Map() }
         const wellFormed = items.flatMap(item => (item.parsed.success ? [item.parsed.data] : []))
@@ -352,17 +357,16 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
       if (role !== 'owner' && role !== 'lead')
         throw new HttpError(403, 'forbidden', 'Only a lead or an owner can sign off a round.')
       return db.transaction(async (tx) => {
-        await tx.insert(teamSyncState).ignore().values({ teamId, lastRev: 0 })
-        const [state] = await tx.select().from(teamSyncState).where(eq(teamSyncState.teamId, teamId)).for('update')
+        const lastRev = await lockCounter(tx, teamId)
         const [round] = await tx.select().from(rounds).where(and(eq(rounds.id, roundId), eq(rounds.teamId, teamId), isNull(rounds.deletedAt))).for('update')
         if (!round)
           throw new HttpError(404, 'not_found', 'No such round.')
         if (round.signedOffAt)
           return toRecord(round as Row)
-        const rev = state!.lastRev + 1
+        const rev = lastRev + 1
         await tx.update(rounds).set({ signedOffAt: new Date(), signedOffBy: actor.userId, rev, updatedAt: new Date() }).where(eq(rounds.id, roundId))
         await tx.update(teamSyncState).set({ lastRev: rev }).where(eq(teamSyncState.teamId, teamId))
-        const [signed] = await tx.select().from(rounds).where(inArray(rounds.id, [roundId]))
+        const [signed] = await tx.select().from(rounds).where(eq(rounds.id, roundId))
         return toRecord(signed as Row)
       })
     },

@@ -1,4 +1,4 @@
-import type { BrewInput, CalibrationFit } from '../../shared/brewing'
+import type { BrewInput } from '../../shared/brewing'
 import { computeBrew, fitCalibration } from '../../shared/brewing'
 
 /** The line and its statistics, recomputed from the standards; the phone's own fit is never trusted. */
@@ -6,7 +6,7 @@ export function deriveCalibration(data: Record<string, unknown>): Record<string,
   return { fit: fitCalibration(data.points as { concentration: number, reading: number }[]) }
 }
 
-export interface CalibrationForBrew { fit: CalibrationFit, standardUnit: 'brix' | 'tds' }
+export type CalibrationForBrew = NonNullable<BrewInput['calibration']>
 
 /** Strength and extraction of a stored brew, with the same function the phone shows live. */
 export function deriveBrew(data: Record<string, unknown>, readingValues: number[], calibration: CalibrationForBrew | null): Record<string, unknown> {

@@ -2,8 +2,8 @@ import type { Ref } from 'vue'
 import type { Zone } from '../../shared/brewing'
 import type { LocalRecord } from '../db/database'
 import { computed, ref } from 'vue'
-import { formatTds, formatYield, zoneVerdict } from '../../shared/brewing'
-import { db } from '../db/database'
+import { computeBrew, formatTds, formatYield, roundHalfUp, zoneVerdict } from '../../shared/brewing'
+import { brewsNewestFirst } from '../db/queries'
 import { useLiveQuery } from './useLiveQuery'
 
 export type MethodFilter = 'all' | 'percolation' | 'immersion' | 'espresso'
@@ -27,9 +27,7 @@ export function inZone(brew: LocalRecord, zone: Zone): boolean | null {
 export function useLedger(teamId: Ref<string | null>, zone: Ref<Zone>) {
   const filters = ref<LedgerFilters>({ method: 'all', period: 'all', zone: 'all', search: '' })
   const { value: brews, state } = useLiveQuery(async () => {
-    if (!teamId.value)
-      return []
-    return (await db.brews.where('[teamId+brewedAt]').between([teamId.value, ''], [teamId.value, '\uFFFF']).reverse().toArray()).filter(brew => !brew.deletedAt)
+    return teamId.value ? brewsNewestFirst(teamId.value) : []
   }, [] as LocalRecord[])
 
   const shown = computed(() => {
@@ -53,13 +51,16 @@ export function useLedger(teamId: Ref<string | null>, zone: Ref<Zone>) {
 /** The rows of the CSV export, with units in the headers. */
 export function ledgerRows(brews: LocalRecord[], zone: Zone): Record<string, string | number>[] {
   const number = (value: unknown): number | string => (typeof value === 'number' ? value : '')
+  // Net masses as the core computes them (gross minus tare where weighed so), to 2 decimals.
+  const masses = (brew: LocalRecord) => computeBrew({ ...(brew as never as Parameters<typeof computeBrew>[0]), readings: [] })
+  const grams = (value: number | null): number | string => (value === null ? '' : roundHalfUp(value, 2))
   return brews.map(brew => ({
     'brewed at (ISO 8601)': String(brew.brewedAt),
     'method': String(brew.method),
     'TDS (%)': tdsOf(brew) === null ? '' : formatTds(tdsOf(brew)!),
     'extraction yield (%)': eyOf(brew) === null ? '' : formatYield(eyOf(brew)!),
-    'dose (g)': number(brew.dose ?? (typeof brew.doseGross === 'number' && typeof brew.doseTare === 'number' ? Math.round((brew.doseGross - brew.doseTare) * 100) / 100 : '')),
-    'beverage (g)': number(brew.beverageMass ?? (typeof brew.beverageGross === 'number' && typeof brew.beverageTare === 'number' ? Math.round((brew.beverageGross - brew.beverageTare) * 100) / 100 : '')),
+    'dose (g)': grams(masses(brew).dose),
+    'beverage (g)': grams(brew.method === 'immersion' ? null : masses(brew).beverageMass),
     'water (g)': number(brew.waterMass),
     'LRR (g/g)': number(brew.retainedRatio),
     'grind setting': String(brew.grindSetting ?? ''),

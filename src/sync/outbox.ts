@@ -12,7 +12,8 @@ export function fieldsOf(record: Record<string, unknown>): Record<string, unknow
 
 // IndexedDB cannot store Vue proxies; a JSON copy also drops undefined fields the server would refuse.
 const plain = <T>(value: T): T => JSON.parse(JSON.stringify(value)) as T
-const same = (a: unknown, b: unknown): boolean => JSON.stringify(a ?? null) === JSON.stringify(b ?? null)
+/** Equal as stored: the same JSON. */
+export const same = (a: unknown, b: unknown): boolean => JSON.stringify(a ?? null) === JSON.stringify(b ?? null)
 
 /** The newest queued mutation of a record that no push has carried yet, if any. */
 async function unsentFor(database: LixiviaDatabase, id: string): Promise<OutboxEntry | undefined> {

@@ -2,9 +2,8 @@ import type { EntityName } from '../../shared/schemas/entities'
 import type { LixiviaDatabase, LocalRecord } from '../db/database'
 import { v7 as uuidv7 } from 'uuid'
 import { tableOf } from '../db/database'
-import { fieldsOf } from './outbox'
+import { fieldsOf, same } from './outbox'
 
-const same = (a: unknown, b: unknown): boolean => JSON.stringify(a ?? null) === JSON.stringify(b ?? null)
 const tablesOf = (database: LixiviaDatabase) => [database.outbox, database.meta, ...Object.values(tableOf).map(name => database[name])]
 
 /** The fields where the phone's copy and the server's differ, for showing a conflict. */
