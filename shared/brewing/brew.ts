@@ -2,7 +2,7 @@ import type { CalibrationFit } from './calibration'
 import type { BrewMethod } from './uncertainty'
 import { concentrationFromReading } from './calibration'
 import { BrewingInputError } from './errors'
-import { beverageFromWater, defaultRetainedRatio, immersionYield, percolationYield } from './extraction'
+import { beverageFromWater, decantedYield, defaultRetainedRatio, immersionYield, percolationYield } from './extraction'
 import { massByDifference } from './mass'
 import { summarizeReadings } from './readings'
 import { defaultBrixFactor, tdsFromBrix } from './sucrose'
@@ -25,6 +25,12 @@ export interface BrewInput {
   retainedRatio?: number | null
 }
 
+/**
+ * Which mass balance gave the extraction yield: the weighed beverage; a beverage estimated from the
+ * water and the LRR; a full immersion's water; or an immersion's poured-off beverage plus the LRR.
+ */
+export type YieldBasis = 'beverage' | 'water-estimate' | 'immersion-water' | 'immersion-decanted'
+
 export interface BrewResult {
   tdsPercent: number | null
   yieldPercent: number | null
@@ -33,6 +39,10 @@ export interface BrewResult {
   beverageMass: number | null
   /** Whether the beverage was estimated from the water and the LRR rather than weighed. */
   beverageEstimated: boolean
+  /** How the yield was (or will be) computed; null until the masses decide it. */
+  yieldBasis: YieldBasis | null
+  /** The LRR used (g/g), given or the method's common-practice default; null when none was needed. */
+  retainedRatio: number | null
   /** What is still needed, in the order a person fills the form. */
   missing: ('readings' | 'calibration' | 'dose' | 'beverageMass' | 'waterMass')[]
   /** An input the core refused, with the field and the sentence to show beside it. */
@@ -48,7 +58,7 @@ function net(mass: number | null | undefined, gross: number | null | undefined, 
  * phone (live result) and on the server (which never trusts the phone's numbers).
  */
 export function computeBrew(input: BrewInput): BrewResult {
-  const result: BrewResult = { tdsPercent: null, yieldPercent: null, dose: null, beverageMass: null, beverageEstimated: false, missing: [], problem: null }
+  const result: BrewResult = { tdsPercent: null, yieldPercent: null, dose: null, beverageMass: null, beverageEstimated: false, yieldBasis: null, retainedRatio: null, missing: [], problem: null }
   try {
     if (input.readings.length > 0) {
       const mean = summarizeReadings(input.readings).mean
@@ -72,22 +82,11 @@ export function computeBrew(input: BrewInput): BrewResult {
     result.dose = net(input.dose, input.doseGross, input.doseTare)
     if (result.dose === null)
       result.missing.push('dose')
-    if (input.method === 'immersion') {
-      if (input.waterMass == null)
-        result.missing.push('waterMass')
-      else if (result.dose !== null && result.tdsPercent !== null)
-        result.yieldPercent = immersionYield({ tdsPercent: result.tdsPercent, waterMass: input.waterMass, dose: result.dose })
-      return result
-    }
     result.beverageMass = net(input.beverageMass, input.beverageGross, input.beverageTare)
-    if (result.beverageMass === null && input.waterMass != null && result.dose !== null) {
-      result.beverageMass = beverageFromWater({ waterMass: input.waterMass, dose: result.dose, retainedRatio: input.retainedRatio ?? defaultRetainedRatio.percolation })
-      result.beverageEstimated = true
-    }
-    if (result.beverageMass === null)
-      result.missing.push('beverageMass')
-    else if (result.dose !== null && result.tdsPercent !== null)
-      result.yieldPercent = percolationYield({ tdsPercent: result.tdsPercent, beverageMass: result.beverageMass, dose: result.dose })
+    if (input.method === 'immersion')
+      immersion(input, result)
+    else
+      percolation(input, result)
   }
   catch (error) {
     if (!(error instanceof BrewingInputError))
@@ -95,4 +94,43 @@ export function computeBrew(input: BrewInput): BrewResult {
     return { ...result, yieldPercent: null, problem: { field: error.field, message: error.message } }
   }
   return result
+}
+
+const ready = (result: BrewResult): boolean => result.dose !== null && result.tdsPercent !== null
+
+/**
+ * Full immersion: from the water when it was weighed (the whole liquid is one well-mixed brew);
+ * otherwise from the beverage poured off plus the liquid the grounds hold (LRR, 3 g/g by default).
+ */
+function immersion(input: BrewInput, result: BrewResult): void {
+  if (input.waterMass != null) {
+    result.yieldBasis = 'immersion-water'
+    if (ready(result))
+      result.yieldPercent = immersionYield({ tdsPercent: result.tdsPercent!, waterMass: input.waterMass, dose: result.dose! })
+    return
+  }
+  if (result.beverageMass === null) {
+    result.missing.push('waterMass')
+    return
+  }
+  result.yieldBasis = 'immersion-decanted'
+  result.retainedRatio = input.retainedRatio ?? defaultRetainedRatio.immersion
+  if (ready(result))
+    result.yieldPercent = decantedYield({ tdsPercent: result.tdsPercent!, beverageMass: result.beverageMass, dose: result.dose!, retainedRatio: result.retainedRatio })
+}
+
+/** Percolation and espresso: the weighed beverage, or one estimated from the water and the LRR. */
+function percolation(input: BrewInput, result: BrewResult): void {
+  if (result.beverageMass === null && input.waterMass != null && result.dose !== null) {
+    result.retainedRatio = input.retainedRatio ?? defaultRetainedRatio.percolation
+    result.beverageMass = beverageFromWater({ waterMass: input.waterMass, dose: result.dose, retainedRatio: result.retainedRatio })
+    result.beverageEstimated = true
+  }
+  if (result.beverageMass === null) {
+    result.missing.push('beverageMass')
+    return
+  }
+  result.yieldBasis = result.beverageEstimated ? 'water-estimate' : 'beverage'
+  if (ready(result))
+    result.yieldPercent = percolationYield({ tdsPercent: result.tdsPercent!, beverageMass: result.beverageMass, dose: result.dose! })
 }

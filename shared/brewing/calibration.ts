@@ -106,6 +106,21 @@ export function inverseUncertainty(fit: CalibrationFit, reading: number, replica
     * Math.sqrt(1 / replicates + 1 / fit.n + (offset * offset) / (fit.slope * fit.slope * fit.sxx))
 }
 
+/**
+ * The part of an inverse prediction's standard uncertainty that comes from the line alone,
+ * (s_y/x / |b|) √(1/n + (ȳ0 − ȳ)² / (b² Sxx)): inverseUncertainty without the 1/m term of the new
+ * readings, for when their scatter is counted separately from the instrument's repeatability.
+ * @param fit - a line from fitCalibration with at least three standards
+ * @param reading - the mean reading, in the instrument's unit
+ */
+export function lineUncertainty(fit: CalibrationFit, reading: number): number {
+  requireFinite(reading, 'reading', 'The reading')
+  if (fit.degreesOfFreedom < 1)
+    throw new BrewingInputError('points', 'Estimating the calibration\'s uncertainty needs at least three standards.')
+  const offset = reading - fit.meanReading
+  return (fit.residualSd / Math.abs(fit.slope)) * Math.sqrt(1 / fit.n + (offset * offset) / (fit.slope * fit.slope * fit.sxx))
+}
+
 export interface CalibrationDiagnostics {
   /** Reading minus the line's prediction, one per standard, in the instrument's unit. */
   residuals: number[]

@@ -1,6 +1,7 @@
 // The brewing core: pure calculations shared by the phone and the server. Percent values are
 // percent (1.30 means 1.30 %), masses are grams.
 export * from './brew'
+export * from './brew-uncertainty'
 export * from './calibration'
 export * from './errors'
 export * from './extraction'

@@ -1,5 +1,5 @@
 import { BrewingInputError, requireNonNegative, requirePositive, requireTdsPercent } from './errors'
-import { immersionYield, percolationYield } from './extraction'
+import { decantedYield, immersionYield, percolationYield } from './extraction'
 
 export type BrewMethod = 'percolation' | 'espresso' | 'immersion'
 
@@ -8,10 +8,12 @@ export interface YieldUncertaintyInput {
   tdsPercent: number
   /** Grams of ground coffee. */
   dose: number
-  /** Grams of beverage (percolation and espresso). */
+  /** Grams of beverage (percolation and espresso; an immersion's poured-off beverage). */
   beverageMass?: number
   /** Grams of brew water (immersion). */
   waterMass?: number
+  /** LRR in g/g, for an immersion yield from the poured-off beverage (taken as exact). */
+  retainedRatio?: number
   /** Smallest step the scale shows, in grams (0.1 for most brew scales). */
   scaleResolution: number
   /** Each mass weighed as gross minus tare (two readings of the scale) rather than tared to zero. */
@@ -64,7 +66,16 @@ export function yieldUncertainty(input: YieldUncertaintyInput): YieldUncertainty
   let dStrength: number
   let dDose: number
   let dLiquid: number
-  if (input.method === 'immersion') {
+  if (input.method === 'immersion' && input.waterMass === undefined && input.beverageMass !== undefined) {
+    const beverage = input.beverageMass
+    const retained = requireNonNegative(input.retainedRatio ?? Number.NaN, 'retainedRatio', 'The retained liquid ratio (LRR)')
+    const ey = decantedYield({ tdsPercent: tds, beverageMass: beverage, dose, retainedRatio: retained })
+    // EY = TDS (B + L D) / D = TDS B / D + TDS L.
+    dStrength = (beverage + retained * dose) / dose
+    dLiquid = tds / dose
+    dDose = -(ey - tds * retained) / dose
+  }
+  else if (input.method === 'immersion') {
     if (input.waterMass === undefined)
       throw new BrewingInputError('waterMass', 'An immersion brew needs the water mass.')
     const water = input.waterMass

@@ -1,7 +1,7 @@
 import fc from 'fast-check'
 import { linearRegression, rSquared } from 'simple-statistics'
 import { describe, expect, it } from 'vitest'
-import { BrewingInputError, concentrationFromReading, diagnoseCalibration, fitCalibration, inverseUncertainty } from '../../shared/brewing'
+import { BrewingInputError, concentrationFromReading, diagnoseCalibration, fitCalibration, inverseUncertainty, lineUncertainty } from '../../shared/brewing'
 import { agreeingDigits, readCsv, readHeader } from './fixtures'
 
 describe('fitCalibration', () => {
@@ -95,6 +95,19 @@ describe('concentrationFromReading and inverseUncertainty', () => {
   it('refuses an uncertainty from two standards', () => {
     const two = fitCalibration([{ concentration: 0, reading: 0 }, { concentration: 10, reading: 8.5 }])
     expect(() => inverseUncertainty(two, 4)).toThrow(expect.objectContaining({ field: 'points' }))
+    expect(() => lineUncertainty(two, 4)).toThrow(expect.objectContaining({ field: 'points' }))
+  })
+
+  it.each([[2.9, 1], [13.5, 1], [23.0, 4]])('splits the inverse uncertainty at y0 = %s, m = %s into the line and the new readings', (reading, replicates) => {
+    // s_x0² = (s_y/x / b)² / m + line²: the same formula with the 1/m term taken out.
+    const readingsPart = (fit.residualSd / fit.slope) ** 2 / replicates
+    expect(inverseUncertainty(fit, reading, replicates) ** 2).toBeCloseTo(readingsPart + lineUncertainty(fit, reading) ** 2, 12)
+  })
+
+  it('has the smallest line uncertainty at the centre of the standards', () => {
+    // (ȳ0 − ȳ)² vanishes at ȳ: what is left is s_y/x / |b| / √n.
+    expect(lineUncertainty(fit, fit.meanReading)).toBeCloseTo(fit.residualSd / fit.slope / Math.sqrt(fit.n), 12)
+    expect(lineUncertainty(fit, 2.9)).toBeGreaterThan(lineUncertainty(fit, fit.meanReading))
   })
 })
 

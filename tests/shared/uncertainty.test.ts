@@ -1,6 +1,6 @@
 import type { YieldUncertaintyInput } from '../../shared/brewing'
 import { describe, expect, it } from 'vitest'
-import { immersionYield, percolationYield, scaleReadingUncertainty, yieldUncertainty } from '../../shared/brewing'
+import { decantedYield, immersionYield, percolationYield, scaleReadingUncertainty, yieldUncertainty } from '../../shared/brewing'
 
 /** A small seeded generator (mulberry32) so the Monte Carlo check is repeatable. */
 function random(seed: number): () => number {
@@ -44,6 +44,7 @@ describe('yieldUncertainty', () => {
   it.each([
     ['percolation', pourOver, (x: number[]) => percolationYield({ tdsPercent: x[0]!, dose: x[1]!, beverageMass: x[2]! }), [1.35, 15, 240]],
     ['immersion', { ...pourOver, method: 'immersion', beverageMass: undefined, waterMass: 180, dose: 10, tdsPercent: 1.2 } as YieldUncertaintyInput, (x: number[]) => immersionYield({ tdsPercent: x[0]!, dose: x[1]!, waterMass: x[2]! }), [1.2, 10, 180]],
+    ['decanted immersion', { ...pourOver, method: 'immersion', beverageMass: 150, retainedRatio: 3, dose: 10, tdsPercent: 1.2 } as YieldUncertaintyInput, (x: number[]) => decantedYield({ tdsPercent: x[0]!, dose: x[1]!, beverageMass: x[2]!, retainedRatio: 3 }), [1.2, 10, 150]],
   ] as const)('matches the law of propagation with numerical derivatives (%s)', (_name, input, model, at) => {
     // Independent check of the analytic partial derivatives by central differences.
     const u = yieldUncertainty(input)
