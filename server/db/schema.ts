@@ -1,4 +1,5 @@
 import type { MySqlColumnBuilderBase } from 'drizzle-orm/mysql-core'
+import type { HistoryEntry } from '../../shared/schemas/entities'
 import { sql } from 'drizzle-orm'
 import { bigint, char, datetime, index, json, mysqlEnum, mysqlTable, primaryKey, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
 
@@ -117,6 +118,8 @@ function recordTable<T extends Record<string, MySqlColumnBuilderBase>>(name: str
     data: json('data').$type<Record<string, unknown>>().notNull(),
     derived: json('derived').$type<Record<string, unknown>>(),
     fieldRevs: json('field_revs').$type<Record<string, number>>().notNull(),
+    /** Every edit, delete and restore after creation, oldest first (HistoryEntry in shared/schemas). */
+    history: json('history').$type<HistoryEntry[]>(),
     ...references,
   }, table => [
     index(`${name}_team_rev_idx`).on(table.teamId, table.rev),
@@ -136,6 +139,7 @@ export const entries = recordTable('entries', { roundId: ref('round_id') })
 export const trips = recordTable('trips', {})
 export const lots = recordTable('lots', { tripId: ref('trip_id') })
 export const recipes = recordTable('recipes', {})
+export const zones = recordTable('zones', {})
 
 /** Per team, the last rev handed out. Locked inside each push, so commits happen in rev order. */
 export const teamSyncState = mysqlTable('team_sync_state', {

@@ -1,6 +1,6 @@
 import type { z } from 'zod'
 import type { Role } from '../../shared/schemas/auth'
-import type { Change, EntityName, Mutation, MutationResult } from '../../shared/schemas/entities'
+import type { Change, EntityName, HistoryEntry, Mutation, MutationResult } from '../../shared/schemas/entities'
 import type { Db } from '../db/client'
 import type { RecordTable } from '../sync/registry'
 import type { TeamsService } from './teams.service'
@@ -13,12 +13,25 @@ import { deriveBrew, deriveCalibration } from '../sync/derive'
 import { registry } from '../sync/registry'
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0]
+/** A brew whose result may have moved in this batch: the rev of its own edit (if any), and by whom. */
+interface Touch { rev: number | null, by: string }
 type Row = RecordTable['$inferSelect'] & { signedOffAt?: Date | null }
 
 const entityNames = Object.keys(registry) as EntityName[]
 const iso = (date: Date | null | undefined): string | null => (date ? date.toISOString() : null)
 const isObject = (value: unknown): value is Record<string, unknown> => typeof value === 'object' && value !== null && !Array.isArray(value)
 const same = (a: unknown, b: unknown): boolean => JSON.stringify(a ?? null) === JSON.stringify(b ?? null)
+
+/** A brew's result as its history shows it. */
+const pick = (derived: Record<string, unknown> | null | undefined) => ({ tdsPercent: derived?.tdsPercent ?? null, yieldPercent: derived?.yieldPercent ?? null })
+
+/** Adds changes to the history entry of that rev, or appends a new entry. */
+function withChanges(history: HistoryEntry[], entry: HistoryEntry): HistoryEntry[] {
+  const last = history.at(-1)
+  if (last?.rev === entry.rev)
+    return [...history.slice(0, -1), { ...last, changes: { ...last.changes, ...entry.changes } }]
+  return [...history, entry]
+}
 
 function describe(error: z.ZodError): string {
   const issue = error.issues[0]
@@ -37,6 +50,7 @@ export function toRecord(row: Row): Record<string, unknown> {
     rev: row.rev,
     deletedAt: iso(row.deletedAt),
     derived: row.derived ?? null,
+    history: row.history ?? [],
     ...('signedOffAt' in row ? { signedOffAt: iso(row.signedOffAt) } : {}),
   }
 }
@@ -116,7 +130,7 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
     return (await roundSignedOff(batch, roundId)) ? reason : null
   }
 
-  async function apply(batch: Batch, m: Mutation, role: Role, userId: string, nextRev: () => number, touched: Map<string, { rev: number | null }>): Promise<MutationResult> {
+  async function apply(batch: Batch, m: Mutation, role: Role, userId: string, nextRev: () => number, touched: Map<string, Touch>): Promise<MutationResult> {
     const definition = registry[m.entity]
     const rejected = (reason: string): MutationResult => ({ mutationId: m.mutationId, status: 'rejected', reason })
     const applied = (rev: number): MutationResult => ({ mutationId: m.mutationId, status: 'applied', rev })
@@ -130,20 +144,26 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
       return rejected('Members can change only the records they made; ask a lead to correct this one.')
     const conflict = (): MutationResult => ({ mutationId: m.mutationId, status: 'conflict', rev: current!.rev, server: toRecord(current!) })
 
-    if (m.op === 'delete') {
+    // A teammate's brew is corrected only with a reason, which its history keeps.
+    if (current && m.entity === 'brew' && current.createdBy !== userId && !m.reason && (m.op !== 'put' || current.deletedAt === null))
+      return rejected('reason: say why you change a brew a teammate recorded; the reason stays in its history.')
+    const note = (op: HistoryEntry['op'], rev: number, changes: HistoryEntry['changes'] = {}): HistoryEntry[] =>
+      [...(current?.history ?? []), { rev, at: new Date().toISOString(), by: userId, op, changes, ...(m.reason ? { reason: m.reason } : {}) }]
+
+    if (m.op === 'delete' || m.op === 'restore') {
       if (!current)
         return rejected('There is no such record on the server.')
       if (definition.appendOnly)
         return rejected('Readings are kept as recorded and cannot be deleted.')
-      if (current.deletedAt)
+      if (Boolean(current.deletedAt) === (m.op === 'delete'))
         return applied(current.rev)
-      if (m.baseRev !== null && current.rev > m.baseRev)
+      if (m.op === 'delete' && m.baseRev !== null && current.rev > m.baseRev)
         return conflict()
       const frozen = await frozenReason(batch, m.entity, m.id, current.data)
       if (frozen)
         return rejected(frozen)
       const rev = nextRev()
-      await write(batch, m.entity, { ...current, deletedAt: new Date(), updatedAt: new Date(), rev })
+      await write(batch, m.entity, { ...current, deletedAt: m.op === 'delete' ? new Date() : null, updatedAt: new Date(), rev, history: note(m.op, rev) })
       return applied(rev)
     }
 
@@ -190,11 +210,14 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
     const fieldRevs = { ...current?.fieldRevs, ...Object.fromEntries(changed.map(key => [key, rev])) }
     const columns = { data, derived, fieldRevs, rev, updatedAt: new Date(), ...definition.references(data) }
     const now = new Date()
-    await write(batch, m.entity, current ? { ...current, ...columns } : { id: m.id, teamId: m.teamId, createdBy: userId, createdAt: now, deletedAt: null, ...columns } as Row)
+    if (current)
+      await write(batch, m.entity, { ...current, ...columns, history: note('edit', rev, Object.fromEntries(changed.map(key => [key, { from: current.data[key] ?? null, to: data[key] ?? null }]))) })
+    else
+      await write(batch, m.entity, { id: m.id, teamId: m.teamId, createdBy: userId, createdAt: now, deletedAt: null, history: null, ...columns } as Row)
     if (m.entity === 'brew')
-      touched.set(m.id, { rev })
-    else if (m.entity === 'reading' && !touched.has(data.brewId as string))
-      touched.set(data.brewId as string, { rev: null })
+      touched.set(m.id, { ...touched.get(m.id), rev, by: userId })
+    else if (m.entity === 'reading')
+      touched.set(data.brewId as string, { rev: null, by: userId, ...touched.get(data.brewId as string) })
     return applied(rev)
   }
 
@@ -225,25 +248,26 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
   }
 
   /**
-   * Recomputes the strength and yield of the brews a batch touched, from all their readings (one
-   * query for those already stored); a changed result of a stored brew is a new rev.
+   * Recomputes the strength and yield of the brews a batch touched, from all their readings but the
+   * ones set aside (one query for those already stored). A changed result of a stored brew is a new
+   * rev, and its history says how the result moved and how many readings came.
    */
-  async function rederive(batch: Batch, touched: Map<string, { rev: number | null }>, nextRev: () => number): Promise<void> {
+  async function rederive(batch: Batch, touched: Map<string, Touch>, nextRev: () => number): Promise<void> {
     if (touched.size === 0)
       return
     const brewIds = [...touched.keys()]
-    const values = new Map<string, number[]>(brewIds.map(id => [id, []]))
+    const found = new Map<string, { id: string, value: number, fresh: boolean }[]>(brewIds.map(id => [id, []]))
     const stored = await batch.tx.select({ id: readings.id, brewId: readings.brewId, data: readings.data }).from(readings).where(and(inArray(readings.brewId, brewIds), isNull(readings.deletedAt)))
     const seen = new Set<string>()
     for (const reading of stored) {
       seen.add(reading.id)
-      values.get(reading.brewId!)?.push(reading.data.value as number)
+      found.get(reading.brewId!)?.push({ id: reading.id, value: reading.data.value as number, fresh: false })
     }
     for (const { entity, row } of batch.inserts.values()) {
       if (entity === 'reading' && !seen.has(row.id))
-        values.get(row.data.brewId as string)?.push(row.data.value as number)
+        found.get(row.data.brewId as string)?.push({ id: row.id, value: row.data.value as number, fresh: true })
     }
-    for (const [brewId, { rev }] of touched) {
+    for (const [brewId, touch] of touched) {
       const brew = await find(batch, 'brew', brewId)
       if (!brew)
         continue
@@ -254,9 +278,20 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
         if (row && fit)
           calibration = { fit: fit as never, standardUnit: row.data.standardUnit as 'brix' | 'tds' }
       }
-      const derived = deriveBrew(brew.data, values.get(brewId) ?? [], calibration)
-      if (!same(derived, brew.derived))
-        await write(batch, 'brew', { ...brew, derived, rev: rev ?? nextRev(), updatedAt: new Date() })
+      const all = found.get(brewId) ?? []
+      const excluded = new Set(brew.data.excludedReadingIds as string[] | undefined)
+      const derived = deriveBrew(brew.data, all.filter(r => !excluded.has(r.id)).map(r => r.value), calibration)
+      if (same(derived, brew.derived))
+        continue
+      const rev = touch.rev ?? nextRev()
+      const isNew = batch.inserts.has(key('brew', brewId))
+      const added = all.filter(r => r.fresh).length
+      const changes: HistoryEntry['changes'] = {
+        result: { from: pick(brew.derived), to: pick(derived) },
+        ...(added ? { readings: { from: all.length - added, to: all.length } } : {}),
+      }
+      const history = isNew ? brew.history : withChanges(brew.history ?? [], { rev, at: new Date().toISOString(), by: touch.by, op: 'edit', changes })
+      await write(batch, 'brew', { ...brew, derived, history, rev, updatedAt: new Date() })
     }
   }
 
@@ -294,7 +329,7 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
             answered.set(row.mutationId, row.result as MutationResult)
           await preload(batch, wellFormed.filter(m => !answered.has(m.mutationId)))
         }
-        const touchedByTeam = new Map<string, Map<string, { rev: number | null }>>()
+        const touchedByTeam = new Map<string, Map<string, Touch>>()
         const fresh: { mutationId: string, result: MutationResult }[] = []
         const results: MutationResult[] = []
         for (const item of items) {

@@ -1,7 +1,7 @@
 import type { z } from 'zod'
 import type { EntityName } from '../../shared/schemas/entities'
 import { entityDataSchemas } from '../../shared/schemas/entities'
-import { brews, calibrations, entries, events, instruments, lots, readings, recipes, rounds, trips } from '../db/schema'
+import { brews, calibrations, entries, events, instruments, lots, readings, recipes, rounds, trips, zones } from '../db/schema'
 
 /** The columns every record table shares (the extra reference columns differ per table). */
 export type RecordTable = typeof instruments
@@ -71,4 +71,5 @@ export const registry: Record<EntityName, EntityDefinition> = {
     parents: data => (typeof data.tripId === 'string' ? [['trip', data.tripId]] : []),
   },
   recipe: { table: recipes, schema: entityDataSchemas.recipe, references: none, parents: noParents },
+  zone: { table: zones, schema: entityDataSchemas.zone, references: none, parents: noParents },
 }

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { BrewMethodSchema, CalibrationPointSchema, ReadingKindSchema } from './brewing'
+import { BrewMethodSchema, CalibrationPointSchema, RangeSchema, ReadingKindSchema } from './brewing'
 
 // What a phone may write for each kind of record. Derived values (a calibration's fit, a brew's
 // strength and yield) are not here: the server computes them with shared/brewing.
@@ -61,6 +61,8 @@ export const BrewDataSchema = z.strictObject({
   waterTemperatureC: z.number().min(0).max(100).nullable().default(null),
   notes: text(2000).default(''),
   brewedAt: when,
+  /** Readings set aside (a misread, a smeared lens): kept on record, left out of the result. */
+  excludedReadingIds: z.array(id).max(50, 'must hold at most 50 readings').default([]),
 })
 
 export const ReadingDataSchema = z.strictObject({
@@ -109,6 +111,14 @@ export const RecipeDataSchema = z.strictObject({
   notes: text(2000).default(''),
 })
 
+/** A team's own target zone on the brewing control chart, beside the published presets. */
+export const ZoneDataSchema = z.strictObject({
+  name,
+  tdsPercent: RangeSchema.refine(range => range.max < 100, { message: 'must be below 100 %', path: ['max'] }),
+  yieldPercent: RangeSchema.refine(range => range.max < 100, { message: 'must be below 100 %', path: ['max'] }),
+  notes: text(2000).default(''),
+})
+
 export const entityDataSchemas = {
   instrument: InstrumentDataSchema,
   calibration: CalibrationDataSchema,
@@ -120,6 +130,7 @@ export const entityDataSchemas = {
   trip: TripDataSchema,
   lot: LotDataSchema,
   recipe: RecipeDataSchema,
+  zone: ZoneDataSchema,
 } as const
 
 export type EntityName = keyof typeof entityDataSchemas
@@ -138,15 +149,33 @@ export const RecordEnvelopeSchema = z.object({
 })
 export type RecordEnvelope = z.infer<typeof RecordEnvelopeSchema>
 
+/**
+ * One line of a record's history, written by the server as it applies a change: who, when, at which
+ * rev, and each field's value before and after. `result` holds a brew's strength and yield before
+ * and after when the change moved them; `readings` the count of readings when some were added.
+ */
+export const HistoryEntrySchema = z.object({
+  rev: z.number().int(),
+  at: z.string(),
+  by: z.string(),
+  op: z.enum(['edit', 'delete', 'restore']),
+  changes: z.record(z.string(), z.object({ from: z.unknown(), to: z.unknown() })).default({}),
+  reason: z.string().optional(),
+})
+export type HistoryEntry = z.infer<typeof HistoryEntrySchema>
+
 export const MutationSchema = z.strictObject({
   mutationId: id,
   entity: EntityNameSchema,
-  op: z.enum(['put', 'delete']),
+  /** put: create or edit; delete: leave a tombstone; restore: bring a tombstoned record back. */
+  op: z.enum(['put', 'delete', 'restore']),
   id,
   teamId: id,
   data: z.unknown().optional(),
   /** The server rev the phone's copy was based on; null for a record new on the phone. */
   baseRev: z.number().int().nonnegative().nullable(),
+  /** Why a record was changed or deleted; a teammate's brew is only corrected with one. */
+  reason: z.string().trim().max(500, 'must be at most 500 characters').optional(),
 })
 export type Mutation = z.infer<typeof MutationSchema>
 

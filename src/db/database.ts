@@ -1,6 +1,6 @@
 import type { Table } from 'dexie'
 import type { Membership, User } from '../../shared/schemas/auth'
-import type { EntityName, MutationResult } from '../../shared/schemas/entities'
+import type { EntityName, HistoryEntry, MutationResult } from '../../shared/schemas/entities'
 import Dexie from 'dexie'
 
 /** Who was signed in on this phone, so the app opens offline under that identity. No tokens. */
@@ -35,6 +35,8 @@ export interface LocalRecord {
   rev: number | null
   deletedAt: string | null
   derived?: Record<string, unknown> | null
+  /** Edits, deletes and restores as the server recorded them (none yet for a record new here). */
+  history?: HistoryEntry[]
   sync: LocalSync
   [field: string]: unknown
 }
@@ -44,12 +46,14 @@ export interface OutboxEntry {
   seq?: number
   mutationId: string
   entity: EntityName
-  op: 'put' | 'delete'
+  op: 'put' | 'delete' | 'restore'
   id: string
   teamId: string
   /** All fields for a new record; only the changed ones for an edit. */
   data?: Record<string, unknown>
   baseRev: number | null
+  /** Why the record was changed, for its history (a teammate's brew needs one). */
+  reason?: string
   createdAt: string
   /** Set when a push carrying it started: it may have reached the server, so it is never edited. */
   sentAt: string | null
@@ -59,7 +63,7 @@ export interface OutboxEntry {
 
 export interface MetaEntry { key: string, value: unknown }
 
-export const recordTables = ['instruments', 'calibrations', 'brews', 'readings', 'events', 'rounds', 'entries', 'trips', 'lots', 'recipes'] as const
+export const recordTables = ['instruments', 'calibrations', 'brews', 'readings', 'events', 'rounds', 'entries', 'trips', 'lots', 'recipes', 'zones'] as const
 export type RecordTableName = (typeof recordTables)[number]
 
 export const tableOf: Record<EntityName, RecordTableName> = {
@@ -73,6 +77,7 @@ export const tableOf: Record<EntityName, RecordTableName> = {
   trip: 'trips',
   lot: 'lots',
   recipe: 'recipes',
+  zone: 'zones',
 }
 
 /** The one IndexedDB database of the app. Versions are only ever appended, never edited. */
@@ -90,6 +95,7 @@ export class LixiviaDatabase extends Dexie {
   trips!: Table<LocalRecord, string>
   lots!: Table<LocalRecord, string>
   recipes!: Table<LocalRecord, string>
+  zones!: Table<LocalRecord, string>
 
   constructor(name = 'lixivia') {
     super(name)
@@ -108,6 +114,7 @@ export class LixiviaDatabase extends Dexie {
       lots: 'id, teamId, tripId, [teamId+updatedAt], sync.state',
       recipes: 'id, teamId, [teamId+updatedAt], sync.state',
     })
+    this.version(3).stores({ zones: 'id, teamId, [teamId+updatedAt], sync.state' })
   }
 }
 

@@ -123,7 +123,7 @@ export function createSyncEngine(options: SyncEngineOptions) {
       await database.outbox.bulkUpdate(batch.map(entry => ({ key: entry.seq!, changes: { sentAt } })))
       const { results } = await transport.push({
         clientId: id,
-        mutations: batch.map(({ mutationId, entity, op, id: recordId, teamId, data, baseRev }) => ({ mutationId, entity, op, id: recordId, teamId, data, baseRev })),
+        mutations: batch.map(({ mutationId, entity, op, id: recordId, teamId, data, baseRev, reason }) => ({ mutationId, entity, op, id: recordId, teamId, data, baseRev, ...(reason ? { reason } : {}) })),
       })
       const byId = new Map(results.map(result => [result.mutationId, result]))
       await database.transaction('rw', [database.outbox, ...Object.values(tableOf).map(name => database[name])], async () => {

@@ -3,7 +3,7 @@ import type { LixiviaDatabase, LocalRecord, OutboxEntry } from '../db/database'
 import { v7 as uuidv7 } from 'uuid'
 import { tableOf } from '../db/database'
 
-const envelope = new Set(['id', 'teamId', 'createdBy', 'createdAt', 'updatedAt', 'rev', 'deletedAt', 'derived', 'sync', 'signedOffAt'])
+const envelope = new Set(['id', 'teamId', 'createdBy', 'createdAt', 'updatedAt', 'rev', 'deletedAt', 'derived', 'history', 'sync', 'signedOffAt'])
 
 /** The record's own fields, without envelope or sync state. */
 export function fieldsOf(record: Record<string, unknown>): Record<string, unknown> {
@@ -22,13 +22,16 @@ async function unsentFor(database: LixiviaDatabase, id: string): Promise<OutboxE
   return last && !last.sentAt && !last.rejected ? last : undefined
 }
 
+const joinReasons = (...reasons: (string | undefined)[]): string | undefined => reasons.filter(Boolean).join('; ') || undefined
+
 /**
  * Saves a record on the phone and queues it for the server in one transaction: both happen or
  * neither does. A new record queues all its fields; an edit queues only what changed, folded into
  * a queued mutation no push has carried yet (one that may have reached the server is never edited).
+ * A reason goes with the change into the record's history on the server.
  * @returns the record's id
  */
-export async function saveRecord(database: LixiviaDatabase, entity: EntityName, input: { teamId: string, userId: string, id?: string, data: Record<string, unknown> }): Promise<string> {
+export async function saveRecord(database: LixiviaDatabase, entity: EntityName, input: { teamId: string, userId: string, id?: string, data: Record<string, unknown>, reason?: string }): Promise<string> {
   const table = database[tableOf[entity]]
   const id = input.id ?? uuidv7()
   const data = plain(fieldsOf(input.data))
@@ -45,32 +48,73 @@ export async function saveRecord(database: LixiviaDatabase, entity: EntityName, 
       return
     await table.put({ ...existing, ...patch, updatedAt: now, sync: { ...existing.sync, state: 'pending' } })
     const unsent = await unsentFor(database, id)
+    const reason = joinReasons(unsent?.op === 'put' ? unsent.reason : undefined, input.reason)
     if (unsent?.op === 'put')
-      await database.outbox.update(unsent.seq!, { data: { ...unsent.data, ...patch } })
+      await database.outbox.update(unsent.seq!, { data: { ...unsent.data, ...patch }, ...(reason ? { reason } : {}) })
     else
-      await database.outbox.add({ mutationId: uuidv7(), entity, op: 'put', id, teamId: existing.teamId, data: patch, baseRev: existing.sync.baseRev, createdAt: now, sentAt: null })
+      await database.outbox.add({ mutationId: uuidv7(), entity, op: 'put', id, teamId: existing.teamId, data: patch, baseRev: existing.sync.baseRev, ...(reason ? { reason } : {}), createdAt: now, sentAt: null })
   })
   return id
 }
 
+/** Puts a deleted record back, as the undo of a delete. */
+export type Undo = () => Promise<void>
+
 /**
- * Deletes a record. One that never reached the server simply goes, with its queued mutations; any
- * other keeps a tombstone here and queues the delete.
+ * Deletes a record and returns its undo. One that never reached the server simply goes, with its
+ * queued mutations (and, for a brew, its readings that never left the phone either); the undo puts
+ * them all back. Any other keeps a tombstone here and queues the delete; its undo is a restore.
  */
-export async function deleteRecord(database: LixiviaDatabase, entity: EntityName, id: string): Promise<void> {
+export async function deleteRecord(database: LixiviaDatabase, entity: EntityName, id: string, options: { reason?: string } = {}): Promise<Undo> {
   const table = database[tableOf[entity]]
-  await database.transaction('rw', table, database.outbox, async () => {
+  let undo: Undo = async () => {}
+  await database.transaction('rw', table, database.readings, database.outbox, async () => {
     const existing: LocalRecord | undefined = await table.get(id)
     if (!existing || existing.deletedAt)
       return
     const queued = await database.outbox.where('id').equals(id).toArray()
     if (existing.rev === null && queued.every(entry => !entry.sentAt)) {
-      await database.outbox.bulkDelete(queued.map(entry => entry.seq!))
+      const readings = entity === 'brew' ? (await database.readings.where('brewId').equals(id).toArray()).filter(reading => reading.rev === null) : []
+      const readingEntries = readings.length ? await database.outbox.where('id').anyOf(readings.map(reading => reading.id)).toArray() : []
+      const entries = [...queued, ...readingEntries]
+      await database.outbox.bulkDelete(entries.map(entry => entry.seq!))
+      await database.readings.bulkDelete(readings.map(reading => reading.id))
       await table.delete(id)
+      undo = () => database.transaction('rw', table, database.readings, database.outbox, async () => {
+        await table.put(existing)
+        await database.readings.bulkPut(readings)
+        await database.outbox.bulkPut(entries)
+      })
       return
     }
     const now = new Date().toISOString()
     await table.put({ ...existing, deletedAt: now, updatedAt: now, sync: { ...existing.sync, state: 'pending' } })
-    await database.outbox.add({ mutationId: uuidv7(), entity, op: 'delete', id, teamId: existing.teamId, baseRev: existing.sync.baseRev, createdAt: now, sentAt: null })
+    await database.outbox.add({ mutationId: uuidv7(), entity, op: 'delete', id, teamId: existing.teamId, baseRev: existing.sync.baseRev, ...(options.reason ? { reason: options.reason } : {}), createdAt: now, sentAt: null })
+    undo = () => restoreRecord(database, entity, id, { reason: options.reason && `Undo of a delete: ${options.reason}` })
+  })
+  return undo
+}
+
+/**
+ * Brings a deleted record back. A delete no push has carried yet is simply taken out of the
+ * outbox; otherwise a restore is queued for the server.
+ */
+export async function restoreRecord(database: LixiviaDatabase, entity: EntityName, id: string, options: { reason?: string } = {}): Promise<void> {
+  const table = database[tableOf[entity]]
+  await database.transaction('rw', table, database.outbox, async () => {
+    const existing: LocalRecord | undefined = await table.get(id)
+    if (!existing?.deletedAt)
+      return
+    const now = new Date().toISOString()
+    const queued = (await database.outbox.where('id').equals(id).sortBy('seq')).filter(entry => !entry.rejected)
+    const last = queued.at(-1)
+    if (last?.op === 'delete' && !last.sentAt) {
+      await database.outbox.delete(last.seq!)
+      const waiting = queued.length > 1 || existing.rev === null
+      await table.put({ ...existing, deletedAt: null, updatedAt: now, sync: { ...existing.sync, state: waiting ? 'pending' : 'clean' } })
+      return
+    }
+    await table.put({ ...existing, deletedAt: null, updatedAt: now, sync: { ...existing.sync, state: 'pending' } })
+    await database.outbox.add({ mutationId: uuidv7(), entity, op: 'restore', id, teamId: existing.teamId, baseRev: existing.sync.baseRev, ...(options.reason ? { reason: options.reason } : {}), createdAt: now, sentAt: null })
   })
 }

@@ -71,6 +71,7 @@ export async function resendRejected(database: LixiviaDatabase, seq: number): Pr
       teamId: entry.teamId,
       data: entry.op === 'put' ? fieldsOf(record) : undefined,
       baseRev: record.sync.baseRev,
+      ...(entry.reason ? { reason: entry.reason } : {}),
       createdAt: new Date().toISOString(),
       sentAt: null,
     })

@@ -47,7 +47,7 @@ export function fakeServer() {
     async pull(_team, since) {
       if (offline)
         throw new Offline('No network')
-      const changes: Change[] = [...records.entries()].filter(([, r]) => r.rev > since).sort((a, b) => a[1].rev - b[1].rev).map(([id, r]) => ({ entity: 'instrument', id, rev: r.rev, op: r.deleted ? 'delete' : 'put', data: { ...r.data, id, teamId, createdBy: userId, createdAt: 'x', updatedAt: 'x', rev: r.rev, deletedAt: null } }))
+      const changes: Change[] = [...records.entries()].filter(([, r]) => r.rev > since).sort((a, b) => a[1].rev - b[1].rev).map(([id, r]) => ({ entity: 'instrument', id, rev: r.rev, op: r.deleted ? 'delete' : 'put', data: { ...r.data, id, teamId, createdBy: userId, createdAt: 'x', updatedAt: 'x', rev: r.rev, deletedAt: r.deleted ? 'x' : null } }))
       return { changes, cursor: changes.at(-1)?.rev ?? since, hasMore: false }
     },
   }

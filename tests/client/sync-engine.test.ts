@@ -2,7 +2,7 @@ import type { SyncStatus } from '../../src/sync/engine'
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import { LixiviaDatabase } from '../../src/db/database'
 import { createSyncEngine } from '../../src/sync/engine'
-import { deleteRecord, saveRecord } from '../../src/sync/outbox'
+import { deleteRecord, restoreRecord, saveRecord } from '../../src/sync/outbox'
 import { fakeServer, teamId, userId } from './fake-sync-server'
 
 let database: LixiviaDatabase
@@ -45,6 +45,64 @@ describe('saveRecord and deleteRecord', () => {
     await deleteRecord(database, 'instrument', id)
     expect(await database.instruments.get(id)).toBeUndefined()
     expect(await database.outbox.count()).toBe(0)
+  })
+
+  it('drop a brew that never left the phone together with its readings, and undo it whole', async () => {
+    const brewId = await saveRecord(database, 'brew', { teamId, userId, data: { method: 'percolation', notes: 'test pour' } })
+    const readingId = await saveRecord(database, 'reading', { teamId, userId, data: { brewId, value: 1.35, kind: 'tds' } })
+    const before = await database.outbox.orderBy('seq').toArray()
+    const undo = await deleteRecord(database, 'brew', brewId)
+    expect(await database.readings.get(readingId)).toBeUndefined()
+    expect(await database.outbox.count()).toBe(0)
+    await undo()
+    expect(await database.brews.get(brewId)).toMatchObject({ notes: 'test pour', deletedAt: null })
+    expect(await database.readings.get(readingId)).toMatchObject({ value: 1.35 })
+    expect(await database.outbox.orderBy('seq').toArray()).toEqual(before)
+  })
+
+  it('undo a delete of a synced record by taking the unsent delete back', async () => {
+    const server = fakeServer()
+    const { engine } = engineWith(server)
+    const id = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Bench J') })
+    await engine.syncNow()
+    const undo = await deleteRecord(database, 'instrument', id, { reason: 'sold' })
+    expect(await database.outbox.toArray()).toEqual([expect.objectContaining({ op: 'delete', reason: 'sold' })])
+    await undo()
+    expect(await database.outbox.count()).toBe(0)
+    expect(await database.instruments.get(id)).toMatchObject({ deletedAt: null, sync: { state: 'clean' } })
+  })
+
+  it('undo a delete the server already has with a restore', async () => {
+    const server = fakeServer()
+    const { engine } = engineWith(server)
+    const id = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Bench K') })
+    await engine.syncNow()
+    const undo = await deleteRecord(database, 'instrument', id, { reason: 'sold' })
+    await engine.syncNow()
+    expect(server.records.get(id)?.deleted).toBe(true)
+    await undo()
+    expect(await database.outbox.toArray()).toEqual([expect.objectContaining({ op: 'restore', reason: 'Undo of a delete: sold' })])
+    await engine.syncNow()
+    expect(server.records.get(id)?.deleted).toBe(false)
+    expect(await database.instruments.get(id)).toMatchObject({ deletedAt: null, sync: { state: 'clean', baseRev: 3 } })
+  })
+
+  it('leave a record that is not deleted alone on restore', async () => {
+    const id = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Bench L') })
+    await restoreRecord(database, 'instrument', id)
+    expect(await database.outbox.count()).toBe(1)
+  })
+
+  it('carry the reason of an edit, joined when edits fold together', async () => {
+    const server = fakeServer()
+    const { engine } = engineWith(server)
+    const id = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Bench M') })
+    await engine.syncNow()
+    await saveRecord(database, 'instrument', { teamId, userId, id, data: { label: 'Bench M1' }, reason: 'typo' })
+    await saveRecord(database, 'instrument', { teamId, userId, id, data: { notes: 'lens cleaned' }, reason: 'service' })
+    expect(await database.outbox.toArray()).toEqual([expect.objectContaining({ reason: 'typo; service', data: { label: 'Bench M1', notes: 'lens cleaned' } })])
+    await engine.syncNow()
+    expect(server.pushes.at(-1)).toMatchObject({ mutations: [expect.objectContaining({ reason: 'typo; service' })] })
   })
 })
 

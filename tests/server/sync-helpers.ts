@@ -7,12 +7,16 @@ import { bearer } from './auth-helpers'
 export const now = (): string => new Date().toISOString()
 
 /** A mutation as a phone's outbox sends it. */
-export function put(entity: string, teamId: string, data: Record<string, unknown>, options: { id?: string, baseRev?: number | null } = {}) {
-  return { mutationId: uuidv7(), entity, op: 'put' as const, id: options.id ?? uuidv7(), teamId, data, baseRev: options.baseRev ?? null }
+export function put(entity: string, teamId: string, data: Record<string, unknown>, options: { id?: string, baseRev?: number | null, reason?: string } = {}) {
+  return { mutationId: uuidv7(), entity, op: 'put' as const, id: options.id ?? uuidv7(), teamId, data, baseRev: options.baseRev ?? null, ...(options.reason ? { reason: options.reason } : {}) }
 }
 
-export function remove(entity: string, teamId: string, id: string, baseRev: number | null) {
-  return { mutationId: uuidv7(), entity, op: 'delete' as const, id, teamId, baseRev }
+export function remove(entity: string, teamId: string, id: string, baseRev: number | null, reason?: string) {
+  return { mutationId: uuidv7(), entity, op: 'delete' as const, id, teamId, baseRev, ...(reason ? { reason } : {}) }
+}
+
+export function restore(entity: string, teamId: string, id: string, baseRev: number | null, reason?: string) {
+  return { mutationId: uuidv7(), entity, op: 'restore' as const, id, teamId, baseRev, ...(reason ? { reason } : {}) }
 }
 
 export const instrument = (label = 'Bar refractometer') => ({ label, readingKind: 'tds', resolution: 0.01, repeatability: 0.02 })

@@ -56,7 +56,7 @@ describe('POST /api/v1/sync/push', () => {
     const brew = put('brew', teamId, pourOver({ notes: 'first pour', grindSetting: '22' }))
     const created = (await push(app, crew.lead, [brew])).body.results[0]
     // A second phone corrects the notes...
-    const notes = put('brew', teamId, { notes: 'bloom 40 s' }, { id: brew.id, baseRev: created.rev })
+    const notes = put('brew', teamId, { notes: 'bloom 40 s' }, { id: brew.id, baseRev: created.rev, reason: 'The bloom time was left out' })
     expect((await push(app, crew.owner, [notes])).body.results[0].status).toBe('applied')
     // ...while the first, from the same base, changes the grind (merges) and the notes (clashes).
     const grind = put('brew', teamId, { grindSetting: '24' }, { id: brew.id, baseRev: created.rev })
