@@ -2,6 +2,9 @@ import type { Db } from './client'
 import { sql } from 'drizzle-orm'
 import { v7 as uuidv7 } from 'uuid'
 import { hashPassword } from '../services/passwords'
+import { createSyncService } from '../services/sync.service'
+import { createTeamsService } from '../services/teams.service'
+import { demoRecords } from './demo-records'
 import { memberships, teams, users } from './schema'
 
 /**
@@ -17,20 +20,30 @@ export const demoAccounts = [
   { name: 'Dora Vellacott', email: 'dora@kestrel-quay.test', role: 'viewer' },
 ] as const
 
-/** Seeds the demo team only into an empty database; returns whether it wrote anything. */
+/**
+ * Seeds the demo team only into an empty database; returns whether it wrote anything. Its records
+ * go through the same push as a phone's, so the server derives their results as it always does.
+ */
 export async function seedDemo(db: Db): Promise<boolean> {
   const [row] = await db.select({ count: sql<number>`count(*)` }).from(users)
   if (Number(row?.count ?? 0) > 0)
     return false
   const passwordHash = await hashPassword(demoPassword)
   const teamId = uuidv7()
+  const ids = Object.fromEntries(demoAccounts.map(account => [account.role, uuidv7()])) as Record<(typeof demoAccounts)[number]['role'], string>
   await db.transaction(async (tx) => {
     await tx.insert(teams).values({ id: teamId, name: demoTeamName })
     for (const account of demoAccounts) {
-      const userId = uuidv7()
-      await tx.insert(users).values({ id: userId, email: account.email, name: account.name, passwordHash })
-      await tx.insert(memberships).values({ teamId, userId, role: account.role })
+      await tx.insert(users).values({ id: ids[account.role], email: account.email, name: account.name, passwordHash })
+      await tx.insert(memberships).values({ teamId, userId: ids[account.role], role: account.role })
     }
   })
+  const sync = createSyncService({ db, teams: createTeamsService(db) })
+  for (const { userId, mutations } of demoRecords(teamId, ids)) {
+    const { results } = await sync.push(userId, { clientId: uuidv7(), mutations })
+    const refused = results.find(result => result.status !== 'applied')
+    if (refused)
+      throw new Error(`The demo data was refused: ${refused.reason ?? refused.status}`)
+  }
   return true
 }

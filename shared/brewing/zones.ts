@@ -24,6 +24,16 @@ export const zonePresets: readonly Zone[] = [
 /** A zone preset by id, or undefined. */
 export const findZonePreset = (id: string): Zone | undefined => zonePresets.find(zone => zone.id === id)
 
+/**
+ * Filter coffee and espresso live an order of magnitude apart in strength (about 1–2 %TDS against
+ * 7–12 %), so a brew is judged against a zone of its own family: espresso zones reach above 5 %TDS.
+ */
+export type ZoneFamily = 'filter' | 'espresso'
+export const zoneFamily = (zone: Zone): ZoneFamily => (zone.tdsPercent.max > 5 ? 'espresso' : 'filter')
+export const methodFamily = (method: string): ZoneFamily => (method === 'espresso' ? 'espresso' : 'filter')
+/** The preset a family falls back to when the team has chosen none. */
+export const defaultZone: Readonly<Record<ZoneFamily, Zone>> = { filter: zonePresets[0]!, espresso: zonePresets[3]! }
+
 function checkRange(range: Range | undefined, field: string, label: string, upper: number): Range {
   if (!range)
     throw new BrewingInputError(field, `${label} needs a lower and an upper limit.`)

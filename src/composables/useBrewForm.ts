@@ -1,12 +1,22 @@
-import type { InjectionKey } from 'vue'
-import type { BrewMethod, BrewResult, ReadingsSummary, Zone, ZoneVerdict } from '../../shared/brewing'
-import { computed, inject, reactive } from 'vue'
-import { brewRatio, computeBrew, findZonePreset, summarizeReadings, yieldUncertainty, zonePresets, zoneVerdict } from '../../shared/brewing'
+import type { InjectionKey, Ref } from 'vue'
+import type { BrewInput, BrewMethod, BrewResult, BrewUncertainty, ReadingKind, ReadingsSummary, Zone, ZoneVerdict } from '../../shared/brewing'
+import type { Gauge } from './useGauges'
+import { computed, inject, reactive, watch } from 'vue'
+import { brewRatio, brewUncertainty, computeBrew, defaultRetainedRatio, summarizeReadings, zoneVerdict } from '../../shared/brewing'
+import { readDuration, readNumber } from '../forms/numbers'
+
+export type ContextKind = 'quick' | 'entry' | 'lot' | 'recipe'
+
+/** One reading in the form: stored ones carry their id and can only be set aside, never removed. */
+export interface BrewFormReading { value: number, id?: string, excluded: boolean }
 
 /** What the person types, as typed: numbers stay text until they are read. */
 export interface BrewForm {
+  context: { kind: ContextKind, refId: string | null }
   method: BrewMethod
-  strengthSource: 'direct' | 'brix-factor'
+  /** The refractometer used, or null for readings typed as %TDS or °Brix without one. */
+  instrumentId: string | null
+  manualSource: 'direct' | 'brix-factor'
   brixFactor: string
   byDifference: boolean
   dose: string
@@ -18,15 +28,20 @@ export interface BrewForm {
   waterMass: string
   retainedRatio: string
   grindSetting: string
+  contactTime: string
+  waterTemperature: string
   notes: string
-  readings: number[]
-  zoneId: string
+  readings: BrewFormReading[]
 }
 
-export function emptyBrewForm(zoneId = 'us-drip'): BrewForm {
+export const lrrText = (method: BrewMethod): string => (method === 'immersion' ? defaultRetainedRatio.immersion : defaultRetainedRatio.percolation).toFixed(1)
+
+export function emptyBrewForm(): BrewForm {
   return {
+    context: { kind: 'quick', refId: null },
     method: 'percolation',
-    strengthSource: 'direct',
+    instrumentId: null,
+    manualSource: 'direct',
     brixFactor: '0.85',
     byDifference: true,
     dose: '',
@@ -36,91 +51,119 @@ export function emptyBrewForm(zoneId = 'us-drip'): BrewForm {
     beverageGross: '',
     beverageTare: '',
     waterMass: '',
-    retainedRatio: '',
+    retainedRatio: lrrText('percolation'),
     grindSetting: '',
+    contactTime: '',
+    waterTemperature: '',
     notes: '',
     readings: [],
-    zoneId,
   }
 }
 
-/** A typed number: blank is null, a comma counts as a decimal point, anything else is an error. */
-export function readNumber(text: string): { value: number | null, error: boolean } {
-  const trimmed = text.trim().replace(',', '.')
-  if (trimmed === '')
-    return { value: null, error: false }
-  const value = Number(trimmed)
-  return Number.isFinite(value) ? { value, error: false } : { value: null, error: true }
+/** Scale resolution (g) assumed for the ±: most brew scales show 0.1 g (common practice). */
+export const scaleResolution = 0.1
+/** Repeatability of one reading when no instrument is chosen (common practice, in the readings' unit). */
+const manualRepeatability = { 'direct': 0.02, 'brix-factor': 0.05 } as const
+
+/** How the readings become %TDS, decided by the instrument chosen and its active calibration. */
+export interface StrengthSource {
+  source: BrewInput['strengthSource']
+  kind: ReadingKind
+  calibration: BrewInput['calibration']
+  /** Whether a °Brix factor takes part (°Brix readings, or a line fitted to sucrose standards). */
+  usesFactor: boolean
+  repeatability: number
 }
 
-/** Scale resolution (g) and single-reading repeatability assumed for the ± (common practice). */
-const scaleResolution = 0.1
-const repeatability = { 'direct': 0.02, 'brix-factor': 0.05 } as const
+export function strengthSourceOf(gauge: Gauge | null, manualSource: BrewForm['manualSource']): StrengthSource {
+  if (!gauge)
+    return { source: manualSource, kind: manualSource === 'direct' ? 'tds' : 'brix', calibration: null, usesFactor: manualSource === 'brix-factor', repeatability: manualRepeatability[manualSource] }
+  const repeatability = Number(gauge.instrument.repeatability)
+  if (gauge.fit)
+    return { source: 'calibration', kind: gauge.kind, calibration: { fit: gauge.fit, standardUnit: gauge.standardUnit! }, usesFactor: gauge.standardUnit === 'brix', repeatability }
+  // Not calibrated: %TDS and °Brix readings still work; nD readings need a line.
+  const source = gauge.kind === 'tds' ? 'direct' : gauge.kind === 'brix' ? 'brix-factor' : 'calibration'
+  return { source, kind: gauge.kind, calibration: null, usesFactor: source === 'brix-factor', repeatability }
+}
 
 export interface BrewOutcome {
+  input: BrewInput
   result: BrewResult
+  strength: StrengthSource
+  /** Mean and spread of the readings not set aside; the outlier's index is into form.readings. */
   readings: ReadingsSummary | null
-  uncertainty: { tdsPercent: number, yieldPercent: number } | null
+  uncertainty: BrewUncertainty | null
   verdict: ZoneVerdict | null
+  /** Water per gram of coffee, when the water was given. */
   ratio: number | null
   zone: Zone
   /** Fields whose text is not a number, by form field name. */
   invalid: string[]
 }
 
-export function useBrewForm(initial: BrewForm = emptyBrewForm()) {
-  const form = reactive<BrewForm>({ ...initial })
+const numberFields = ['brixFactor', 'dose', 'doseGross', 'doseTare', 'beverageMass', 'beverageGross', 'beverageTare', 'waterMass', 'retainedRatio', 'waterTemperature'] as const
+
+/** The measure form and its live result, for the Bench and for editing a stored brew. */
+export function useBrewForm(initial: BrewForm, options: { gauges: Ref<ReadonlyMap<string, Gauge>>, zoneFor: (method: BrewMethod) => Zone }) {
+  const form = reactive<BrewForm>(structuredClone(initial))
+  /** The chosen refractometer with its active calibration (null: none, or not on this phone). */
+  const gauge = computed(() => (form.instrumentId ? options.gauges.value.get(form.instrumentId) ?? null : null))
+  // The LRR field shows the method's common-practice default until the person types another.
+  watch(() => form.method, (method, previous) => {
+    if (form.retainedRatio === lrrText(previous))
+      form.retainedRatio = lrrText(method)
+  })
 
   const outcome = computed<BrewOutcome>(() => {
-    const numberFields = ['brixFactor', 'dose', 'doseGross', 'doseTare', 'beverageMass', 'beverageGross', 'beverageTare', 'waterMass', 'retainedRatio'] as const
-    const read = Object.fromEntries(numberFields.map(field => [field, readNumber(form[field])])) as Record<(typeof numberFields)[number], { value: number | null, error: boolean }>
-    const invalid = numberFields.filter(field => read[field].error)
+    const read = Object.fromEntries(numberFields.map(field => [field, readNumber(form[field])])) as Record<(typeof numberFields)[number], ReturnType<typeof readNumber>>
+    const strength = strengthSourceOf(gauge.value, form.manualSource)
+    const included = form.readings.flatMap((reading, index) => (reading.excluded ? [] : [{ value: reading.value, index }]))
     const masses = form.byDifference
       ? { doseGross: read.doseGross.value, doseTare: read.doseTare.value, beverageGross: read.beverageGross.value, beverageTare: read.beverageTare.value }
       : { dose: read.dose.value, beverageMass: read.beverageMass.value }
-    const result = computeBrew({
+    const input: BrewInput = {
       method: form.method,
-      strengthSource: form.strengthSource,
-      brixFactor: read.brixFactor.value,
-      readings: form.readings,
+      strengthSource: strength.source,
+      calibration: strength.calibration,
+      brixFactor: strength.usesFactor ? read.brixFactor.value : null,
+      readings: included.map(reading => reading.value),
       waterMass: read.waterMass.value,
       retainedRatio: read.retainedRatio.value,
       ...masses,
-    })
-    const zone = findZonePreset(form.zoneId) ?? zonePresets[0]!
-    let uncertainty = null
-    if (result.tdsPercent !== null && result.yieldPercent !== null && result.dose !== null) {
-      const u = yieldUncertainty({
-        method: form.method,
-        tdsPercent: result.tdsPercent,
-        dose: result.dose,
-        beverageMass: result.beverageMass ?? undefined,
-        waterMass: read.waterMass.value ?? undefined,
-        scaleResolution,
-        byDifference: form.byDifference,
-        repeatabilityTdsPercent: repeatability[form.strengthSource] * (form.strengthSource === 'brix-factor' ? (read.brixFactor.value ?? 0.85) : 1),
-        readings: form.readings.length,
-      })
-      uncertainty = u.expanded
     }
-    // The brew ratio is water per gram of coffee: shown when the water was weighed.
+    const result = computeBrew(input)
+    // A field the result does not use (hidden on the screen) cannot hold up a save.
+    const unused = new Set([...(strength.usesFactor ? [] : ['brixFactor']), ...(result.retainedRatio === null ? ['retainedRatio'] : [])])
+    const invalid: string[] = numberFields.filter(field => read[field].error && !unused.has(field))
+    if (readDuration(form.contactTime).error)
+      invalid.push('contactTime')
+    const temperature = read.waterTemperature.value
+    if (temperature !== null && (temperature < 0 || temperature > 100))
+      invalid.push('waterTemperature')
+    const summary = included.length ? summarizeReadings(input.readings) : null
+    const outlier = summary?.outlier ? { ...summary.outlier, index: included[summary.outlier.index]!.index } : null
+    const zone = options.zoneFor(form.method)
     const water = read.waterMass.value
     return {
+      input,
       result,
-      readings: form.readings.length ? summarizeReadings(form.readings) : null,
-      uncertainty,
+      strength,
+      readings: summary && { ...summary, outlier },
+      uncertainty: brewUncertainty(input, result, { scaleResolution, byDifference: form.byDifference, repeatability: strength.repeatability }),
       verdict: result.tdsPercent !== null && result.yieldPercent !== null && result.tdsPercent > 0 && result.yieldPercent > 0 ? zoneVerdict(zone, { tdsPercent: result.tdsPercent, yieldPercent: result.yieldPercent }) : null,
-      ratio: result.dose !== null && water !== null ? brewRatio(result.dose, water) : null,
+      ratio: result.dose !== null && water !== null && water > 0 ? brewRatio(result.dose, water) : null,
       zone,
       invalid,
     }
   })
 
-  function reset(zoneId = form.zoneId): void {
-    Object.assign(form, emptyBrewForm(zoneId))
+  /** Empties the measurement for the next brew; the context, method and instrument stay. */
+  function reset(): void {
+    const { context, method, instrumentId, manualSource, brixFactor, byDifference } = form
+    Object.assign(form, emptyBrewForm(), { context, method, instrumentId, manualSource, brixFactor, byDifference, retainedRatio: lrrText(method) })
   }
 
-  return { form, outcome, reset }
+  return { form, outcome, gauge, reset }
 }
 
 /** The Bench screen provides its form; the parts of the form inject it instead of mutating props. */
@@ -129,6 +172,6 @@ export const brewFormKey: InjectionKey<BrewForm> = Symbol('brew form')
 export function useInjectedBrewForm(): BrewForm {
   const form = inject(brewFormKey)
   if (!form)
-    throw new Error('A brew form part was used outside the Bench screen.')
+    throw new Error('A brew form part was used outside a measure screen.')
   return form
 }

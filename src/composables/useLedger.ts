@@ -1,16 +1,34 @@
 import type { Ref } from 'vue'
 import type { Zone } from '../../shared/brewing'
 import type { LocalRecord } from '../db/database'
+import type { ContextKind } from './useBrewForm'
 import { computed, ref } from 'vue'
 import { computeBrew, formatTds, formatYield, roundHalfUp, zoneVerdict } from '../../shared/brewing'
 import { brewsNewestFirst } from '../db/queries'
 import { useLiveQuery } from './useLiveQuery'
 
 export type MethodFilter = 'all' | 'percolation' | 'immersion' | 'espresso'
-export type PeriodFilter = 'today' | 'week' | 'all'
+export type PeriodFilter = 'today' | 'week' | 'all' | 'dates'
+export type ContextFilter = 'all' | ContextKind
 export type ZoneFilter = 'all' | 'in' | 'out'
+/** The zone a brew of a method is judged against (useTeamZones). */
+export type ZoneFor = (method: string) => Zone
 
-export interface LedgerFilters { method: MethodFilter, period: PeriodFilter, zone: ZoneFilter, search: string }
+export interface LedgerFilters {
+  method: MethodFilter
+  period: PeriodFilter
+  /** First and last day (YYYY-MM-DD, local) when the period is 'dates'; blank leaves that end open. */
+  from: string
+  to: string
+  context: ContextFilter
+  zone: ZoneFilter
+  search: string
+}
+
+export const noFilters: LedgerFilters = { method: 'all', period: 'all', from: '', to: '', context: 'all', zone: 'all', search: '' }
+
+// One selection for the Ledger and the Zone chart: the brews listed are the brews plotted.
+const filters = ref<LedgerFilters>({ ...noFilters })
 
 const dayMs = 24 * 60 * 60 * 1000
 const tdsOf = (brew: LocalRecord): number | null => (typeof brew.derived?.tdsPercent === 'number' ? brew.derived.tdsPercent : null)
@@ -23,49 +41,76 @@ export function inZone(brew: LocalRecord, zone: Zone): boolean | null {
   return tds !== null && ey !== null ? zoneVerdict(zone, { tdsPercent: tds, yieldPercent: ey }).inZone : null
 }
 
-/** The team's brews on this phone, newest first, through the filters. */
-export function useLedger(teamId: Ref<string | null>, zone: Ref<Zone>) {
-  const filters = ref<LedgerFilters>({ method: 'all', period: 'all', zone: 'all', search: '' })
-  const { value: brews, state } = useLiveQuery(async () => {
-    return teamId.value ? brewsNewestFirst(teamId.value) : []
-  }, [] as LocalRecord[])
-
-  const shown = computed(() => {
-    const { method, period, zone: zoneFilter, search } = filters.value
-    const since = period === 'today' ? Date.now() - dayMs : period === 'week' ? Date.now() - 7 * dayMs : 0
-    const words = search.trim().toLowerCase()
-    return brews.value.filter((brew) => {
-      if (method !== 'all' && brew.method !== method)
-        return false
-      if (since && Date.parse(String(brew.brewedAt)) < since)
-        return false
-      if (zoneFilter !== 'all' && inZone(brew, zone.value) !== (zoneFilter === 'in'))
-        return false
-      return !words || `${brew.notes ?? ''} ${brew.grindSetting ?? ''}`.toLowerCase().includes(words)
-    })
-  })
-
-  return { filters, brews, shown, state }
+/** The time span a period filter keeps, in ms since the epoch; local days for chosen dates. */
+function span(f: LedgerFilters, now: number): [number, number] {
+  if (f.period === 'today')
+    return [now - dayMs, Infinity]
+  if (f.period === 'week')
+    return [now - 7 * dayMs, Infinity]
+  if (f.period === 'dates') {
+    const start = f.from ? new Date(`${f.from}T00:00:00`).getTime() : -Infinity
+    const end = f.to ? new Date(`${f.to}T00:00:00`).getTime() + dayMs : Infinity
+    return [Number.isNaN(start) ? -Infinity : start, Number.isNaN(end) ? Infinity : end]
+  }
+  return [-Infinity, Infinity]
 }
 
+/** The brews a set of filters keeps, in the order given. */
+export function filterBrews(brews: LocalRecord[], f: LedgerFilters, zoneFor: ZoneFor, now = Date.now()): LocalRecord[] {
+  const [start, end] = span(f, now)
+  const words = f.search.trim().toLowerCase()
+  return brews.filter((brew) => {
+    const at = Date.parse(String(brew.brewedAt))
+    if (f.method !== 'all' && brew.method !== f.method)
+      return false
+    if (at < start || at >= end)
+      return false
+    if (f.context !== 'all' && (brew.context as { kind?: string } | undefined)?.kind !== f.context)
+      return false
+    if (f.zone !== 'all' && inZone(brew, zoneFor(String(brew.method))) !== (f.zone === 'in'))
+      return false
+    return !words || `${brew.notes ?? ''} ${brew.grindSetting ?? ''}`.toLowerCase().includes(words)
+  })
+}
+
+/** The team's brews on this phone, newest first, through the filters the Ledger and Zone share. */
+export function useLedger(teamId: Ref<string | null>, zoneFor: ZoneFor) {
+  const { value: brews, state } = useLiveQuery(async () => (teamId.value ? brewsNewestFirst(teamId.value) : []), [] as LocalRecord[], teamId)
+  const shown = computed(() => filterBrews(brews.value, filters.value, zoneFor))
+  const filtered = computed(() => Object.entries(filters.value).some(([key, value]) => value !== noFilters[key as keyof LedgerFilters]))
+  return { filters, brews, shown, filtered, state }
+}
+
+const contextWords: Record<string, string> = { quick: 'quick brew', entry: 'event entry', lot: 'lot', recipe: 'recipe' }
+
 /** The rows of the CSV export, with units in the headers. */
-export function ledgerRows(brews: LocalRecord[], zone: Zone): Record<string, string | number>[] {
+export function ledgerRows(brews: LocalRecord[], zoneFor: ZoneFor, nameOf: (userId: string) => string = () => ''): Record<string, string | number>[] {
   const number = (value: unknown): number | string => (typeof value === 'number' ? value : '')
   // Net masses as the core computes them (gross minus tare where weighed so), to 2 decimals.
   const masses = (brew: LocalRecord) => computeBrew({ ...(brew as never as Parameters<typeof computeBrew>[0]), readings: [] })
   const grams = (value: number | null): number | string => (value === null ? '' : roundHalfUp(value, 2))
-  return brews.map(brew => ({
-    'brewed at (ISO 8601)': String(brew.brewedAt),
-    'method': String(brew.method),
-    'TDS (%)': tdsOf(brew) === null ? '' : formatTds(tdsOf(brew)!),
-    'extraction yield (%)': eyOf(brew) === null ? '' : formatYield(eyOf(brew)!),
-    'dose (g)': grams(masses(brew).dose),
-    'beverage (g)': grams(brew.method === 'immersion' ? null : masses(brew).beverageMass),
-    'water (g)': number(brew.waterMass),
-    'LRR (g/g)': number(brew.retainedRatio),
-    'grind setting': String(brew.grindSetting ?? ''),
-    [`in zone (${zone.name})`]: inZone(brew, zone) === null ? '' : inZone(brew, zone) ? 'yes' : 'no',
-    'notes': String(brew.notes ?? ''),
-    'synced': brew.sync.state === 'clean' ? 'yes' : 'no',
-  }))
+  return brews.map((brew) => {
+    const { dose, beverageMass, beverageEstimated } = masses(brew)
+    const zone = zoneFor(String(brew.method))
+    const inside = inZone(brew, zone)
+    return {
+      'brewed at (ISO 8601)': String(brew.brewedAt),
+      'method': String(brew.method),
+      'context': contextWords[(brew.context as { kind?: string } | undefined)?.kind ?? 'quick'] ?? '',
+      'TDS (%)': tdsOf(brew) === null ? '' : formatTds(tdsOf(brew)!),
+      'extraction yield (%)': eyOf(brew) === null ? '' : formatYield(eyOf(brew)!),
+      'dose (g)': grams(dose),
+      'beverage (g)': grams(beverageEstimated ? null : beverageMass),
+      'water (g)': number(brew.waterMass),
+      'LRR (g/g)': number(brew.retainedRatio),
+      'grind setting': String(brew.grindSetting ?? ''),
+      'contact time (s)': number(brew.contactTimeSeconds),
+      'water temperature (°C)': number(brew.waterTemperatureC),
+      'zone': zone.name,
+      'in zone': inside === null ? '' : inside ? 'yes' : 'no',
+      'recorded by': nameOf(brew.createdBy),
+      'notes': String(brew.notes ?? ''),
+      'synced': brew.sync.state === 'clean' ? 'yes' : 'no',
+    }
+  })
 }

@@ -18,6 +18,8 @@ export const routes: RouteRecordRaw[] = [
     ],
   },
   { path: '/gauges/:id', name: 'instrument', component: () => import('../views/InstrumentPage.vue') },
+  { path: '/ledger/:id', name: 'brew', component: () => import('../views/BrewDetailPage.vue') },
+  { path: '/ledger/:id/edit', name: 'brew-edit', component: () => import('../views/BrewEditPage.vue') },
   { path: '/crew/members', name: 'team-members', component: () => import('../views/TeamMembersPage.vue') },
   { path: '/crew/attention', name: 'sync-attention', component: () => import('../views/SyncAttentionPage.vue') },
   { path: '/join', name: 'join', component: () => import('../views/JoinTeamPage.vue') },

@@ -1,26 +1,46 @@
 import type { VueWrapper } from '@vue/test-utils'
+import type { BrewForm } from '../../src/composables/useBrewForm'
+import type { Gauge } from '../../src/composables/useGauges'
+import type { LocalRecord } from '../../src/db/database'
 import { IonicVue } from '@ionic/vue'
 import { flushPromises, mount } from '@vue/test-utils'
+import { linearRegression } from 'simple-statistics'
 import { describe, expect, it } from 'vitest'
-import { defineComponent, h, provide } from 'vue'
+import { defineComponent, h, provide, ref } from 'vue'
+import { findZonePreset } from '../../shared/brewing'
 import BrewReadings from '../../src/components/brew/BrewReadings.vue'
 import BrewResultPanel from '../../src/components/brew/BrewResultPanel.vue'
+import BrewStrengthSource from '../../src/components/brew/BrewStrengthSource.vue'
 import BrewWeights from '../../src/components/brew/BrewWeights.vue'
 import GaugeCalibrationSession from '../../src/components/gauge/GaugeCalibrationSession.vue'
-import { brewFormKey, useBrewForm } from '../../src/composables/useBrewForm'
+import { brewFormKey, emptyBrewForm, useBrewForm } from '../../src/composables/useBrewForm'
+import { gaugeOf } from '../../src/composables/useGauges'
+
+const record = (fields: Record<string, unknown>): LocalRecord => ({ id: 'r', teamId: 't', createdBy: 'u', createdAt: '', updatedAt: '', rev: 1, deletedAt: null, sync: { state: 'clean', baseRev: 1 }, ...fields })
+// An nD refractometer and a line through the ICUMSA table's nD for 0, 5, 10 and 15 °Brix sucrose.
+const harbour = record({ id: 'gauge-1', label: 'Harbour gauge', readingKind: 'nD', resolution: 0.00001, repeatability: 0.00002 })
+const sucroseLine = record({ id: 'cal-1', instrumentId: 'gauge-1', standardUnit: 'brix', active: true, calibratedAt: '2026-12-01T08:00:00.000Z', points: [[0, 1.33299], [5, 1.34026], [10, 1.34782], [15, 1.35568]].map(([concentration, reading]) => ({ concentration, reading })) })
+
+/** The form of the harness mounted last, for tests that change what a segment would. */
+let mounted: BrewForm
 
 /** The Bench's form parts around one form, as the Bench page wires them. */
-const Harness = defineComponent({
-  setup() {
-    const { form, outcome } = useBrewForm()
-    provide(brewFormKey, form)
-    return () => h('div', [
-      h(BrewWeights, { invalid: outcome.value.invalid, dose: outcome.value.result.dose, beverage: outcome.value.result.beverageMass }),
-      h(BrewReadings, { summary: outcome.value.readings, invalid: outcome.value.invalid }),
-      h(BrewResultPanel, { outcome: outcome.value }),
-    ])
-  },
-})
+function harness(gauge: Gauge | null = null, initial: Partial<BrewForm> = {}) {
+  return defineComponent({
+    setup() {
+      const { form, outcome } = useBrewForm({ ...emptyBrewForm(), ...initial, instrumentId: gauge?.instrument.id ?? null }, { gauges: ref(new Map(gauge ? [[gauge.instrument.id, gauge]] : [])), zoneFor: () => findZonePreset('us-drip')! })
+      provide(brewFormKey, form)
+      mounted = form
+      return () => h('div', [
+        h(BrewStrengthSource, { gauges: gauge ? [gauge] : [], gauge, strength: outcome.value.strength, invalid: outcome.value.invalid }),
+        h(BrewWeights, { invalid: outcome.value.invalid, dose: outcome.value.result.dose, beverage: outcome.value.result.beverageMass, estimated: outcome.value.result.beverageEstimated }),
+        h(BrewReadings, { summary: outcome.value.readings, kind: outcome.value.strength.kind }),
+        h(BrewResultPanel, { outcome: outcome.value }),
+      ])
+    },
+  })
+}
+const Harness = harness()
 
 /** Types the way Ionic reports it: an ionInput event with the new value. */
 async function type(wrapper: VueWrapper, name: string, value: string): Promise<void> {
@@ -74,6 +94,75 @@ describe('the measure form', () => {
     for (const value of ['1.38', '1.52', '1.37', '1.39'])
       await addReading(wrapper, value)
     expect(text(wrapper, 'readings-summary')).toContain('1.52 looks like an outlier')
+  })
+})
+
+describe('the measure form with a refractometer', () => {
+  it('goes through the instrument\'s active calibration and says so', async () => {
+    const wrapper = mount(harness(gaugeOf(harbour, sucroseLine)), { global: { plugins: [IonicVue] } })
+    expect(text(wrapper, 'strength-line')).toContain('through the calibration of')
+    expect(text(wrapper, 'strength-line')).toContain('4 sucrose °Brix standards')
+    // A coffee reading of nD 1.33570 through the same line fitted by simple-statistics (an
+    // independent library), times the common-practice factor 0.85.
+    const line = linearRegression((sucroseLine.points as { concentration: number, reading: number }[]).map(p => [p.concentration, p.reading]))
+    const expected = 0.85 * (1.3357 - line.b) / line.m
+    await addReading(wrapper, '1.3357')
+    expect(text(wrapper, 'tds')).toBe(expected.toFixed(2))
+    expect((wrapper.find('[data-test="reading"]').element as HTMLElement & { label: string }).label).toBe('Reading (nD)')
+  })
+
+  it('refuses an nD reading no refractometer shows', async () => {
+    const wrapper = mount(harness(gaugeOf(harbour, sucroseLine)), { global: { plugins: [IonicVue] } })
+    await addReading(wrapper, '13.4')
+    expect(wrapper.find('[data-test="reading"]').attributes('error-text')).toBe('Type the reading in nD, such as 1.3357.')
+  })
+
+  it('asks for a calibration before an uncalibrated nD instrument gives a result', async () => {
+    const wrapper = mount(harness(gaugeOf(harbour, null)), { global: { plugins: [IonicVue] } })
+    await addReading(wrapper, '1.3357')
+    expect(text(wrapper, 'strength-line')).toContain('has no active calibration')
+    expect(text(wrapper, 'missing')).toContain('Calibrate this refractometer')
+    expect(text(wrapper, 'tds')).toBe('—')
+  })
+})
+
+describe('the measure form\'s LRR and immersion', () => {
+  it('shows the common-practice LRR and follows the method until the person types another', async () => {
+    const wrapper = mount(Harness, { global: { plugins: [IonicVue] } })
+    // LRR 2.0 g/g for paper-filter percolation and 3 g/g for immersion: common practice.
+    const lrr = () => (wrapper.find('[data-test="lrr"]').element as HTMLInputElement).value
+    expect(lrr()).toBe('2.0')
+    mounted.method = 'immersion'
+    await flushPromises()
+    expect(lrr()).toBe('3.0')
+    await type(wrapper, 'lrr', '2.6')
+    mounted.method = 'percolation'
+    await flushPromises()
+    expect(lrr()).toBe('2.6')
+  })
+
+  it('takes an immersion from the poured-off beverage and the LRR when no water is given', async () => {
+    // EY = TDS × (beverage + LRR × dose) / dose = 1.20 × (150 + 3 × 10) / 10 = 21.6 % (mass balance).
+    const wrapper = mount(harness(null, { method: 'immersion', byDifference: false, dose: '10', beverageMass: '150', retainedRatio: '3.0' }), { global: { plugins: [IonicVue] } })
+    await addReading(wrapper, '1.2')
+    expect(text(wrapper, 'ey')).toBe('21.6')
+    expect(text(wrapper, 'basis')).toContain('poured off plus 3.0 g/g')
+  })
+})
+
+describe('stored readings in the form', () => {
+  it('are set aside and brought back, never removed, and the mean follows', async () => {
+    const readings = [1.34, 1.35, 1.36, 1.52].map((value, index) => ({ id: `reading-${index}`, value, excluded: false }))
+    const wrapper = mount(harness(null, { readings, byDifference: false, dose: '15', beverageMass: '240' }), { global: { plugins: [IonicVue] } })
+    expect(text(wrapper, 'readings-summary')).toContain('1.52 looks like an outlier')
+    expect(text(wrapper, 'readings-summary')).toContain('set it aside')
+    const chips = () => wrapper.findAll('[data-test="readings"] ion-chip')
+    await chips()[3]!.trigger('click')
+    expect(chips()).toHaveLength(4)
+    expect(chips()[3]!.classes()).toContain('excluded')
+    expect(text(wrapper, 'tds')).toBe('1.35')
+    await chips()[3]!.trigger('click')
+    expect(text(wrapper, 'tds')).toBe('1.39')
   })
 })
 

@@ -2,7 +2,7 @@ import type { LocalRecord } from '../../src/db/database'
 import Papa from 'papaparse'
 import { describe, expect, it } from 'vitest'
 import { findZonePreset } from '../../shared/brewing'
-import { inZone, ledgerRows } from '../../src/composables/useLedger'
+import { filterBrews, inZone, ledgerRows, noFilters } from '../../src/composables/useLedger'
 
 const us = findZonePreset('us-drip')!
 function brew(extra: Partial<LocalRecord>): LocalRecord {
@@ -29,15 +29,15 @@ function brew(extra: Partial<LocalRecord>): LocalRecord {
 
 describe('ledgerRows', () => {
   it('puts units in the headers and the figures at display precision', () => {
-    const [row] = ledgerRows([brew({})], us)
-    expect(row).toMatchObject({ 'TDS (%)': '1.35', 'extraction yield (%)': '21.6', 'dose (g)': 15, 'beverage (g)': 240, 'in zone (US drip standard)': 'yes', 'synced': 'yes' })
+    const [row] = ledgerRows([brew({})], () => us)
+    expect(row).toMatchObject({ 'TDS (%)': '1.35', 'extraction yield (%)': '21.6', 'dose (g)': 15, 'beverage (g)': 240, 'zone': 'US drip standard', 'in zone': 'yes', 'synced': 'yes' })
   })
 
   it('survives a CSV round trip with quotes and commas in the notes (papaparse)', () => {
-    const csv = Papa.unparse(ledgerRows([brew({}), brew({ id: 'b2', derived: null, sync: { state: 'pending', baseRev: null } })], us))
+    const csv = Papa.unparse(ledgerRows([brew({}), brew({ id: 'b2', derived: null, sync: { state: 'pending', baseRev: null } })], () => us))
     const parsed = Papa.parse<Record<string, string>>(csv, { header: true }).data
     expect(parsed[0]!.notes).toBe('bloom 40 s, "washed" lot')
-    expect(parsed[1]).toMatchObject({ 'TDS (%)': '', 'in zone (US drip standard)': '', 'synced': 'no' })
+    expect(parsed[1]).toMatchObject({ 'TDS (%)': '', 'in zone': '', 'synced': 'no' })
   })
 })
 
@@ -45,5 +45,38 @@ describe('inZone', () => {
   it('is unknown until the brew has figures', () => {
     expect(inZone(brew({ derived: null }), us)).toBeNull()
     expect(inZone(brew({ derived: { tdsPercent: 1.5, yieldPercent: 20 } }), us)).toBe(false)
+  })
+})
+
+describe('filterBrews', () => {
+  const espresso = findZonePreset('espresso')!
+  const zoneFor = (method: string) => (method === 'espresso' ? espresso : us)
+  const brews = [
+    brew({ id: 'quick', brewedAt: '2026-12-01T08:00:00.000Z' }),
+    brew({ id: 'lot', context: { kind: 'lot', refId: 'l1' }, method: 'immersion', brewedAt: '2026-11-20T08:00:00.000Z', grindSetting: 'cupping' }),
+    brew({ id: 'shot', method: 'espresso', brewedAt: '2026-11-30T08:00:00.000Z', derived: { tdsPercent: 9.5, yieldPercent: 20 } }),
+  ]
+  const ids = (filters: Partial<typeof noFilters>, now = Date.parse('2026-12-01T12:00:00.000Z')) => filterBrews(brews, { ...noFilters, ...filters }, zoneFor, now).map(b => b.id)
+
+  it('keeps every brew with no filters', () => {
+    expect(ids({})).toEqual(['quick', 'lot', 'shot'])
+  })
+
+  it('filters by context, method and words in the notes or grind', () => {
+    expect(ids({ context: 'lot' })).toEqual(['lot'])
+    expect(ids({ method: 'espresso' })).toEqual(['shot'])
+    expect(ids({ search: 'CUPPING' })).toEqual(['lot'])
+  })
+
+  it('keeps the chosen days, both ends included', () => {
+    expect(ids({ period: 'dates', from: '2026-11-30', to: '2026-12-01' })).toEqual(['quick', 'shot'])
+    expect(ids({ period: 'dates', to: '2026-11-25' })).toEqual(['lot'])
+    expect(ids({ period: 'week' })).toEqual(['quick', 'shot'])
+  })
+
+  it('judges each brew against the zone of its own family', () => {
+    // 9.5 %TDS at 20 % is inside the espresso zone (8–12 %TDS, common practice), far outside a drip one.
+    expect(ids({ zone: 'in' })).toEqual(['quick', 'lot', 'shot'])
+    expect(inZone(brews[2]!, us)).toBe(false)
   })
 })

@@ -1,7 +1,7 @@
 import type { TestDatabase } from './helpers'
 import { sql } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { memberships, users } from '../../server/db/schema'
+import { brews, memberships, readings, users } from '../../server/db/schema'
 import { demoAccounts, demoPassword, seedDemo } from '../../server/db/seed'
 import { verifyPassword } from '../../server/services/passwords'
 import { createTestDatabase } from './helpers'
@@ -20,6 +20,17 @@ describe('seedDemo', () => {
     const rows = await database.db.select({ email: users.email, role: memberships.role }).from(users).innerJoin(memberships, sql`${memberships.userId} = ${users.id}`)
     expect(rows.map(row => row.role).sort()).toEqual(['lead', 'member', 'owner', 'viewer'])
     expect(rows.map(row => row.email).sort()).toEqual(demoAccounts.map(account => account.email).sort())
+  })
+
+  it('writes the demo records through the sync push, so the server derived every brew\'s result', async () => {
+    const stored = await database.db.select().from(brews)
+    expect(stored).toHaveLength(8)
+    for (const brew of stored) {
+      expect(brew.derived!.tdsPercent, JSON.stringify(brew.data)).toEqual(expect.any(Number))
+      expect(brew.derived!.yieldPercent).toEqual(expect.any(Number))
+    }
+    const [row] = await database.db.select({ count: sql<number>`count(*)` }).from(readings)
+    expect(Number(row!.count)).toBe(23)
   })
 
   it('stores argon2id hashes that verify the printed password', async () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { defineZone, findZonePreset, zonePresets, zoneVerdict } from '../../shared/brewing'
+import { defaultZone, defineZone, findZonePreset, methodFamily, zoneFamily, zonePresets, zoneVerdict } from '../../shared/brewing'
 
 describe('zonePresets', () => {
   it.each([
@@ -92,5 +92,16 @@ describe('defineZone', () => {
   it('refuses an upside-down range, naming the limit', () => {
     expect(() => defineZone({ id: 'x', name: 'X', tdsPercent: { min: 1.4, max: 1.2 }, yieldPercent: { min: 18, max: 22 } }))
       .toThrow(expect.objectContaining({ field: 'tdsPercent.max' }))
+  })
+})
+
+describe('zoneFamily and methodFamily', () => {
+  it('put every drip preset with filter brews and the espresso zone with espresso', () => {
+    // Drip standards (SCAA 2015, European, Norwegian) top out near 1.55 %TDS; espresso runs 8–12 %
+    // (common practice).
+    expect(zonePresets.filter(zone => zoneFamily(zone) === 'filter').map(zone => zone.id)).toEqual(['us-drip', 'european-drip', 'nordic-drip'])
+    expect(zoneFamily(defaultZone.espresso)).toBe('espresso')
+    expect(zoneFamily(defaultZone.filter)).toBe('filter')
+    expect(['percolation', 'immersion', 'espresso'].map(methodFamily)).toEqual(['filter', 'filter', 'espresso'])
   })
 })

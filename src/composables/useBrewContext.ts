@@ -1,0 +1,96 @@
+import type { Ref } from 'vue'
+import type { LocalRecord } from '../db/database'
+import type { BrewForm, ContextKind } from './useBrewForm'
+import { cuppingDose } from '../../shared/brewing'
+import { db } from '../db/database'
+import { formatDuration, numberText } from '../forms/numbers'
+import { useLiveQuery } from './useLiveQuery'
+
+/** What a brew was measured for, in words, with what it brings to the form. */
+export interface BrewContextView {
+  kind: ContextKind
+  title: string
+  detail: string
+  /** The record itself: the recipe, the lot or the event entry. */
+  record: LocalRecord | null
+  /** An event entry is judged against the event's zone. */
+  zoneId: string | null
+  /** An entry in a signed-off round takes no more brews. */
+  closed: boolean
+}
+
+const capital = (word: string): string => word.charAt(0).toUpperCase() + word.slice(1)
+
+const quick: BrewContextView = { kind: 'quick', title: 'Quick brew', detail: 'Not tied to a recipe, a lot or an event.', record: null, zoneId: null, closed: false }
+
+/** Resolves a context from the phone's store; a record not (or no longer) here reads as missing. */
+export async function describeContext(kind: ContextKind, refId: string | null): Promise<BrewContextView> {
+  if (kind === 'quick' || !refId)
+    return quick
+  const missing = { ...quick, kind, title: 'Not on this phone', detail: 'The record this brew belongs to has not synced here, or was deleted.' }
+  if (kind === 'recipe') {
+    const recipe = await db.recipes.get(refId)
+    return recipe && !recipe.deletedAt ? { ...quick, kind, record: recipe, title: `Recipe: ${recipe.name}`, detail: `${capital(String(recipe.method))} · ${recipe.dose} g in ${recipe.waterMass} g of water` } : missing
+  }
+  if (kind === 'lot') {
+    const lot = await db.lots.get(refId)
+    if (!lot || lot.deletedAt)
+      return missing
+    const trip = typeof lot.tripId === 'string' ? await db.trips.get(lot.tripId) : undefined
+    // SCA cupping protocol: 8.25 g ± 0.25 g of coffee per 150 mL of water.
+    const bowl = cuppingDose(150)
+    const cupping = `cupping bowl: ${bowl.dose.toFixed(2)} g (${bowl.min.toFixed(2)}–${bowl.max.toFixed(2)}) per 150 mL`
+    return { ...quick, kind, record: lot, title: `Lot: ${lot.farm}`, detail: [lot.region, lot.variety, lot.process, trip?.name, cupping].filter(Boolean).join(' · ') }
+  }
+  const entry = await db.entries.get(refId)
+  if (!entry || entry.deletedAt)
+    return missing
+  const round = await db.rounds.get(String(entry.roundId))
+  const event = round ? await db.events.get(String(round.eventId)) : undefined
+  return {
+    ...quick,
+    kind,
+    record: entry,
+    title: `Cup ${entry.code}${round ? ` · ${round.name}` : ''}`,
+    detail: event ? String(event.name) : '',
+    zoneId: typeof event?.zoneId === 'string' ? event.zoneId : null,
+    closed: Boolean(round?.signedOffAt),
+  }
+}
+
+export function useBrewContext(context: Ref<{ kind: ContextKind, refId: string | null }>) {
+  return useLiveQuery(() => describeContext(context.value.kind, context.value.refId), quick, context)
+}
+
+/** Everything a brew can be measured for on this team, for the picker. */
+export async function contextChoices(teamId: string): Promise<BrewContextView[]> {
+  const live = (rows: LocalRecord[]) => rows.filter(row => !row.deletedAt)
+  const [recipes, lots, entries] = await Promise.all([
+    db.recipes.where('teamId').equals(teamId).toArray(),
+    db.lots.where('teamId').equals(teamId).toArray(),
+    db.entries.where('teamId').equals(teamId).toArray(),
+  ])
+  const views = await Promise.all([
+    ...live(recipes).map(r => describeContext('recipe', r.id)),
+    ...live(lots).map(l => describeContext('lot', l.id)),
+    ...live(entries).map(e => describeContext('entry', e.id)),
+  ])
+  return [quick, ...views.filter(view => !view.closed).sort((a, b) => a.kind.localeCompare(b.kind) || a.title.localeCompare(b.title))]
+}
+
+/** What choosing a context fills in: a recipe's method and settings, a cupping's immersion. */
+export function contextDefaults(view: BrewContextView): Partial<BrewForm> {
+  const record = view.record
+  if (view.kind === 'recipe' && record) {
+    return {
+      method: record.method as BrewForm['method'],
+      waterMass: numberText(record.waterMass),
+      grindSetting: String(record.grindSetting ?? ''),
+      contactTime: formatDuration(record.contactTimeSeconds as number | null),
+      waterTemperature: numberText(record.waterTemperatureC),
+    }
+  }
+  if (view.kind === 'lot')
+    return { method: 'immersion' }
+  return {}
+}
