@@ -43,11 +43,12 @@ export function useTeamZones(teamId: Ref<string | null>) {
   const zone = computed<Zone>(() => find(chosen.value.shown) ?? zoneFor('percolation'))
   const zonesFor = (method: string): Zone[] => zones.value.filter(z => zoneFamily(z) === methodFamily(method))
 
-  async function choose(id: string): Promise<void> {
-    const picked = find(id)
+  /** Keeps a choice: by id from the list, or a zone just saved that the list may not show yet. */
+  async function choose(choice: string | Zone): Promise<void> {
+    const picked = typeof choice === 'string' ? find(choice) : choice
     if (!picked)
       return
-    await db.meta.bulkPut([{ key: `zone:${teamId.value}:shown`, value: id }, { key: `zone:${teamId.value}:${zoneFamily(picked)}`, value: id }])
+    await db.meta.bulkPut([{ key: `zone:${teamId.value}:shown`, value: picked.id }, { key: `zone:${teamId.value}:${zoneFamily(picked)}`, value: picked.id }])
   }
 
   return { zones, zonesFor, teamZones, records, zone, zoneFor, find, choose }

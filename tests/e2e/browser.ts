@@ -2,6 +2,7 @@ import type { Browser, BrowserContext, Page } from 'playwright-core'
 import { mkdirSync } from 'node:fs'
 import path from 'node:path'
 import { fileURLToPath } from 'node:url'
+import axe from 'axe-core'
 import { chromium } from 'playwright-core'
 import { inject } from 'vitest'
 
@@ -34,6 +35,8 @@ export function watchErrors(page: Page): string[] {
 
 export async function screenshot(page: Page, name: string): Promise<void> {
   mkdirSync(screenshotDir, { recursive: true })
+  // Page transitions and floating field labels come to rest first.
+  await page.waitForTimeout(500)
   await page.screenshot({ path: path.join(screenshotDir, `${name}.png`) })
 }
 
@@ -71,4 +74,35 @@ export async function newestMailTo(page: Page, address: string): Promise<{ subje
     await page.waitForTimeout(100)
   }
   throw new Error(`no mail to ${address}`)
+}
+
+/** Waits until the page Ionic shows has this title (it keeps hidden pages in the DOM). */
+export const waitForTitle = (page: Page, title: string) => page.locator('.ion-page:not(.ion-page-hidden) ion-title', { hasText: title }).first().waitFor()
+
+/**
+ * Runs axe-core (WCAG 2.x A and AA rules) on what the page shows and returns the serious and
+ * critical violations, each as "rule: where". Evaluated through the driver, so the app's
+ * Content-Security-Policy does not block it.
+ */
+export async function accessibilityProblems(page: Page): Promise<string[]> {
+  await page.waitForTimeout(400)
+  if (!(await page.evaluate(() => 'axe' in window)))
+    await page.evaluate(axe.source)
+  const violations = await page.evaluate(async () => {
+    const run = (window as unknown as { axe: typeof axe }).axe.run
+    const result = await run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'] }, resultTypes: ['violations'] })
+    return result.violations.map(v => ({ id: v.id, impact: v.impact, targets: v.nodes.slice(0, 3).map(node => String(node.target.join(' '))) }))
+  })
+  return violations.filter(v => v.impact === 'serious' || v.impact === 'critical').map(v => `${v.id}: ${v.targets.join(' | ')}`)
+}
+
+/** Adds a reading on the measure form. */
+export async function addReading(page: Page, value: string): Promise<void> {
+  await fillField(page, 'reading', value)
+  await onScreen(page, 'add-reading').click()
+}
+
+/** Taps the back button of the screen Ionic shows. */
+export async function goBack(page: Page): Promise<void> {
+  await page.locator('.ion-page:not(.ion-page-hidden) ion-back-button').click()
 }
