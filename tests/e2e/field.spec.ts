@@ -2,7 +2,7 @@ import type { Browser, BrowserContext, Page } from 'playwright-core'
 import { readFileSync } from 'node:fs'
 import { linearRegression } from 'simple-statistics'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { accessibilityProblems, addReading, fillField, goBack, launchBrowser, onScreen, phoneContext, screenshot, signIn, watchErrors } from './browser'
+import { accessibilityProblems, addReading, fillField, goBack, launchBrowser, onScreen, phoneContext, screenshot, signIn, tapChartPoint, watchErrors } from './browser'
 
 // Seeded demo accounts (server/db/seed.ts): the owner works online, the lead at a venue with no signal.
 const owner = { email: 'ines@kestrel-quay.test', password: 'kestrel-demo-2026' }
@@ -142,9 +142,9 @@ function fieldFlow(who: { email: string, password: string }, label: string, offl
     await shot('zone', !offline)
   })
 
-  it('opens it with every input, reading and the calibration used', async () => {
-    await page.locator('#tab-button-ledger').click()
-    await onScreen(page, 'ledger-list').locator('ion-item').first().click()
+  it('opens it from its point on the chart, with every input, reading and the calibration used', async () => {
+    // The team's brews are ink-blue dots (#23395b) on the light chart; this one is the only one kept.
+    await tapChartPoint(page, [0x23, 0x39, 0x5B])
     await expect.poll(() => onScreen(page, 'detail-tds').innerText()).toBe(expected.tds)
     expect(await onScreen(page, 'brew-readings').locator('li').count()).toBe(3)
     expect(await onScreen(page, 'brew-calibration').innerText()).toContain(label)
@@ -152,8 +152,9 @@ function fieldFlow(who: { email: string, password: string }, label: string, offl
     expect(await onScreen(page, 'brew-inputs').innerText()).toContain('27.5 g / 12.5 g')
     expect(await onScreen(page, 'recorded-by').innerText()).toContain('Recorded by you')
     await shot('brew-detail', !offline)
-    // The list's search stays for the next flow only if cleared here.
+    // The Ledger's search would stay for the next flow: it is cleared here.
     await goBack(page)
+    await page.locator('#tab-button-ledger').click()
     await onScreen(page, 'clear-filters').click()
   })
 
