@@ -105,6 +105,48 @@ describe('measuring a brew on the Bench', () => {
     await screenshot(page, 'zone-chart')
   })
 
+  it('measures a cupping bowl for a lot chosen in the picker, as a full immersion', async () => {
+    await page.goto('/bench')
+    await onScreen(page, 'change-context').click()
+    await page.locator('ion-modal ion-item', { hasText: 'Lot: Copperbeck Farm' }).click()
+    await expect.poll(() => onScreen(page, 'context-title').innerText()).toBe('Lot: Copperbeck Farm')
+    expect(await onScreen(page, 'method').evaluate(segment => (segment as HTMLElement & { value: string }).value)).toBe('immersion')
+    // SCA cupping protocol: 8.25 g per 150 mL. Full immersion by mass balance: 150 g of water at
+    // 1.20 %TDS holds 150 × 0.012 / 0.988 = 1.822 g of solids, 22.1 % of 8.25 g.
+    await onScreen(page, 'by-difference').click()
+    await fillField(page, 'dose', '8.25')
+    await fillField(page, 'water', '150')
+    await addReading(page, '1.20')
+    await expect.poll(() => onScreen(page, 'ey').innerText()).toBe('22.1')
+    expect(await onScreen(page, 'basis').innerText()).toContain('Full immersion')
+    await onScreen(page, 'save-brew').click()
+    await expect.poll(() => onScreen(page, 'tds').innerText()).toBe('—')
+    // The context stays for the next bowl of the same lot.
+    expect(await onScreen(page, 'context-title').innerText()).toBe('Lot: Copperbeck Farm')
+    await page.goto('/ledger')
+    await onScreen(page, 'filter-context').locator('ion-segment-button', { hasText: 'Lot' }).click()
+    await expect.poll(() => onScreen(page, 'ledger-list').innerText()).toContain('1.20 %TDS · 22.1 % EY')
+  })
+
+  it('takes its context from a link, as the workflow screens will give it', async () => {
+    await page.goto('/bench')
+    await onScreen(page, 'change-context').click()
+    await page.locator('ion-modal ion-item', { hasText: 'Recipe: House filter' }).click()
+    await expect.poll(() => onScreen(page, 'context-title').innerText()).toBe('Recipe: House filter')
+    // The recipe fills in its water and settings (demo data: 250 g, 22 clicks, 3:30, 94 °C).
+    expect(await onScreen(page, 'water').locator('input').inputValue()).toBe('250')
+    expect(await onScreen(page, 'contact-time').locator('input').inputValue()).toBe('3:30')
+    const recipeId = await page.evaluate(async () => {
+      const open = indexedDB.open('lixivia')
+      const db = await new Promise<IDBDatabase>(resolve => (open.onsuccess = () => resolve(open.result)))
+      const all = db.transaction('recipes').objectStore('recipes').getAll()
+      return new Promise<string>(resolve => (all.onsuccess = () => resolve((all.result as { id: string }[])[0]!.id)))
+    })
+    await page.goto('/ledger')
+    await page.goto(`/bench?context=recipe&ref=${recipeId}`)
+    await expect.poll(() => onScreen(page, 'context-title').innerText()).toBe('Recipe: House filter')
+  })
+
   it('threw no uncaught errors', () => {
     expect(errors).toEqual([])
   })
