@@ -4,6 +4,7 @@ import type { BrewForm, ContextKind } from './useBrewForm'
 import { cuppingDose } from '../../shared/brewing'
 import { db } from '../db/database'
 import { formatDuration, numberText } from '../forms/numbers'
+import { capital } from '../forms/words'
 import { useLiveQuery } from './useLiveQuery'
 
 /** What a brew was measured for, in words, with what it brings to the form. */
@@ -18,8 +19,6 @@ export interface BrewContextView {
   /** An entry in a signed-off round takes no more brews. */
   closed: boolean
 }
-
-const capital = (word: string): string => word.charAt(0).toUpperCase() + word.slice(1)
 
 const quick: BrewContextView = { kind: 'quick', title: 'Quick brew', detail: 'Not tied to a recipe, a lot or an event.', record: null, zoneId: null, closed: false }
 

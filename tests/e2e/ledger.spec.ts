@@ -46,7 +46,7 @@ describe('editing a brew from the log', () => {
     await waitForTitle(page, 'Brew')
     await expect.poll(() => onScreen(page, 'detail-ey').innerText()).toBe('18.1')
     const history = onScreen(page, 'brew-history')
-    await expect.poll(() => history.innerText(), { timeout: 15_000 }).toContain('Dose: 15 → 14.5')
+    await expect.poll(() => history.innerText(), { timeout: 15_000 }).toContain('Dose (g): 15 → 14.5')
     expect(await history.innerText()).toContain('Readings: 3 → 4')
     expect(await history.innerText()).toMatch(/Result: 1\.11 %TDS, 17\.5 % → 1\.12 %TDS, 18\.1 %/)
     await history.scrollIntoViewIfNeeded()
