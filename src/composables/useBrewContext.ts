@@ -22,35 +22,36 @@ export interface BrewContextView {
 
 const quick: BrewContextView = { kind: 'quick', title: 'Quick brew', detail: 'Not tied to a recipe, a lot or an event.', record: null, zoneId: null, closed: false }
 
+const tables = { recipe: db.recipes, lot: db.lots, entry: db.entries } as const
+
 /** Resolves a context from the phone's store; a record not (or no longer) here reads as missing. */
 export async function describeContext(kind: ContextKind, refId: string | null): Promise<BrewContextView> {
   if (kind === 'quick' || !refId)
     return quick
-  const missing = { ...quick, kind, title: 'Not on this phone', detail: 'The record this brew belongs to has not synced here, or was deleted.' }
-  if (kind === 'recipe') {
-    const recipe = await db.recipes.get(refId)
-    return recipe && !recipe.deletedAt ? { ...quick, kind, record: recipe, title: `Recipe: ${recipe.name}`, detail: `${capital(String(recipe.method))} · ${recipe.dose} g in ${recipe.waterMass} g of water` } : missing
-  }
+  const record = await tables[kind].get(refId)
+  if (!record || record.deletedAt)
+    return { ...quick, kind, title: 'Not on this phone', detail: 'The record this brew belongs to has not synced here, or was deleted.' }
+  return describeRecord(kind, record)
+}
+
+/** A recipe, lot or event entry already read, in words, with what it points at (trip, round, event). */
+async function describeRecord(kind: Exclude<ContextKind, 'quick'>, record: LocalRecord): Promise<BrewContextView> {
+  if (kind === 'recipe')
+    return { ...quick, kind, record, title: `Recipe: ${record.name}`, detail: `${capital(String(record.method))} · ${record.dose} g in ${record.waterMass} g of water` }
   if (kind === 'lot') {
-    const lot = await db.lots.get(refId)
-    if (!lot || lot.deletedAt)
-      return missing
-    const trip = typeof lot.tripId === 'string' ? await db.trips.get(lot.tripId) : undefined
+    const trip = typeof record.tripId === 'string' ? await db.trips.get(record.tripId) : undefined
     // SCA cupping protocol: 8.25 g ± 0.25 g of coffee per 150 mL of water.
     const bowl = cuppingDose(150)
     const cupping = `cupping bowl: ${bowl.dose.toFixed(2)} g (${bowl.min.toFixed(2)}–${bowl.max.toFixed(2)}) per 150 mL`
-    return { ...quick, kind, record: lot, title: `Lot: ${lot.farm}`, detail: [lot.region, lot.variety, lot.process, trip?.name, cupping].filter(Boolean).join(' · ') }
+    return { ...quick, kind, record, title: `Lot: ${record.farm}`, detail: [record.region, record.variety, record.process, trip?.name, cupping].filter(Boolean).join(' · ') }
   }
-  const entry = await db.entries.get(refId)
-  if (!entry || entry.deletedAt)
-    return missing
-  const round = await db.rounds.get(String(entry.roundId))
+  const round = await db.rounds.get(String(record.roundId))
   const event = round ? await db.events.get(String(round.eventId)) : undefined
   return {
     ...quick,
     kind,
-    record: entry,
-    title: `Cup ${entry.code}${round ? ` · ${round.name}` : ''}`,
+    record,
+    title: `Cup ${record.code}${round ? ` · ${round.name}` : ''}`,
     detail: event ? String(event.name) : '',
     zoneId: typeof event?.zoneId === 'string' ? event.zoneId : null,
     closed: Boolean(round?.signedOffAt),
@@ -63,17 +64,9 @@ export function useBrewContext(context: Ref<{ kind: ContextKind, refId: string |
 
 /** Everything a brew can be measured for on this team, for the picker. */
 export async function contextChoices(teamId: string): Promise<BrewContextView[]> {
-  const live = (rows: LocalRecord[]) => rows.filter(row => !row.deletedAt)
-  const [recipes, lots, entries] = await Promise.all([
-    db.recipes.where('teamId').equals(teamId).toArray(),
-    db.lots.where('teamId').equals(teamId).toArray(),
-    db.entries.where('teamId').equals(teamId).toArray(),
-  ])
-  const views = await Promise.all([
-    ...live(recipes).map(r => describeContext('recipe', r.id)),
-    ...live(lots).map(l => describeContext('lot', l.id)),
-    ...live(entries).map(e => describeContext('entry', e.id)),
-  ])
+  const kinds = Object.keys(tables) as (keyof typeof tables)[]
+  const found = await Promise.all(kinds.map(kind => tables[kind].where('teamId').equals(teamId).filter(row => !row.deletedAt).toArray()))
+  const views = await Promise.all(kinds.flatMap((kind, index) => found[index]!.map(record => describeRecord(kind, record))))
   return [quick, ...views.filter(view => !view.closed).sort((a, b) => a.kind.localeCompare(b.kind) || a.title.localeCompare(b.title))]
 }
 

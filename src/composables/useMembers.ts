@@ -6,10 +6,19 @@ import { db } from '../db/database'
 import { useLiveQuery } from './useLiveQuery'
 
 const key = (teamId: string | null): string => `members:${teamId}`
+/**
+ * Teams whose members were fetched since the app started: every screen that names people uses
+ * this composable, and one fetch per team and visit is enough.
+ */
+const fetched = new Set<string>()
 
 /** Fetches the team's members and keeps them on the phone, so names show offline too. */
 export async function refreshMembers(teamId: string): Promise<void> {
-  const members = await fetchMembers(teamId)
+  await rememberMembers(teamId, await fetchMembers(teamId))
+}
+
+/** Keeps a member list fetched elsewhere (the members screen) as the phone's copy. */
+export async function rememberMembers(teamId: string, members: Member[]): Promise<void> {
   await db.meta.put({ key: key(teamId), value: members.map(({ userId, name, role }) => ({ userId, name, role })) })
 }
 
@@ -26,7 +35,11 @@ export function useMembers(teamId: Ref<string | null>, me: Ref<{ id: string, nam
   }
   /** "you" for the person holding the phone, their name for anyone else. */
   const whoOf = (userId: string): string => (userId === me.value?.id ? 'you' : nameOf(userId))
-  if (teamId.value && navigator.onLine)
-    void refreshMembers(teamId.value).catch(() => {})
+  if (teamId.value && navigator.onLine && !fetched.has(teamId.value)) {
+    const team = teamId.value
+    fetched.add(team)
+    // Offline or refused: the copy on the phone stays, and the next screen tries again.
+    void refreshMembers(team).catch(() => fetched.delete(team))
+  }
   return { members, nameOf, whoOf }
 }

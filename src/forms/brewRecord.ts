@@ -44,10 +44,12 @@ export function newReadingsOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge
   }))
 }
 
+/** Whether a stored brew's masses were weighed as gross and tare (else as net masses). */
+export const weighedByDifference = (brew: LocalRecord): boolean => brew.doseGross != null || brew.beverageGross != null
+
 /** A stored brew back in the form, to edit it: readings keep their ids and can only be set aside. */
 export function formOfBrew(brew: LocalRecord, readings: LocalRecord[]): BrewForm {
   const excluded = new Set((brew.excludedReadingIds as string[] | undefined) ?? [])
-  const byDifference = brew.doseGross != null || brew.beverageGross != null
   const context = brew.context as { kind: ContextKind, refId: string | null }
   return {
     ...emptyBrewForm(),
@@ -56,7 +58,7 @@ export function formOfBrew(brew: LocalRecord, readings: LocalRecord[]): BrewForm
     instrumentId: (brew.instrumentId as string | null) ?? null,
     manualSource: brew.strengthSource === 'brix-factor' ? 'brix-factor' : 'direct',
     brixFactor: numberText(brew.brixFactor) || '0.85',
-    byDifference,
+    byDifference: weighedByDifference(brew),
     dose: numberText(brew.dose),
     doseGross: numberText(brew.doseGross),
     doseTare: numberText(brew.doseTare),
