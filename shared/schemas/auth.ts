@@ -1,12 +1,15 @@
 import { z } from 'zod'
+import { IdSchema, nameText } from './primitives'
+
+export { IdSchema }
 
 export const RoleSchema = z.enum(['owner', 'lead', 'member', 'viewer'])
 export type Role = z.infer<typeof RoleSchema>
 
 export const EmailSchema = z.string({ error: 'must be an e-mail address' }).trim().toLowerCase().max(254, 'must be at most 254 characters').pipe(z.email({ error: 'must be an e-mail address' }))
 export const PasswordSchema = z.string({ error: 'must be text' }).min(10, 'must be at least 10 characters').max(256, 'must be at most 256 characters')
-export const PersonNameSchema = z.string({ error: 'must be text' }).trim().min(1, 'must not be empty').max(120, 'must be at most 120 characters')
-export const TeamNameSchema = z.string({ error: 'must be text' }).trim().min(1, 'must not be empty').max(120, 'must be at most 120 characters')
+export const PersonNameSchema = nameText(120)
+export const TeamNameSchema = nameText(120)
 /** One-time tokens travel as 43 characters of base64url (32 random bytes). */
 export const OneTimeTokenSchema = z.string({ error: 'must be text' }).regex(/^[\w-]{43}$/, 'is not a valid link token')
 
@@ -44,6 +47,3 @@ export const InvitationResponseSchema = z.object({ invitation: InvitationSchema 
 export const InvitationsResponseSchema = z.object({ invitations: z.array(InvitationSchema) })
 export const AcceptInvitationBodySchema = z.strictObject({ token: OneTimeTokenSchema })
 export const AcceptInvitationResponseSchema = z.object({ membership: MembershipSchema })
-
-/** Path parameters are UUIDs; anything else cannot name a row. */
-export const IdSchema = z.string().regex(/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i, 'is not an id')
