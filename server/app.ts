@@ -18,10 +18,12 @@ import { defaultRateLimits, limiter } from './middleware/rate-limits'
 import { authRoutes } from './routes/auth.routes'
 import { devMailRoutes } from './routes/dev-mail.routes'
 import { healthRoutes } from './routes/health.routes'
+import { roundRoutes } from './routes/rounds.routes'
 import { syncRoutes } from './routes/sync.routes'
 import { teamRoutes } from './routes/teams.routes'
 import { createAuthService } from './services/auth.service'
 import { createInvitationsService } from './services/invitations.service'
+import { createRoundsService } from './services/rounds.service'
 import { createSyncService } from './services/sync.service'
 import { createTeamsService } from './services/teams.service'
 
@@ -102,6 +104,7 @@ export function createApp(deps: AppDeps): Express {
   const invitations = createInvitationsService({ db, teams, mailer: deps.mailer, publicUrl: deps.publicUrl })
   const auth = createAuthService({ db, tokens, mailer: deps.mailer, publicUrl: deps.publicUrl })
   const sync = createSyncService({ db, teams, hooks: deps.syncHooks })
+  const rounds = createRoundsService({ db, teams })
 
   const api = express.Router()
   api.use(healthRoutes({ pool: deps.database.pool, version: deps.version }))
@@ -112,6 +115,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(['/me', '/teams', '/invitations', '/sync'], requireAuth(tokens))
   api.use(teamRoutes(teams, invitations))
   api.use(syncRoutes(sync))
+  api.use(roundRoutes(rounds))
   app.use('/api/v1', api)
   app.use('/api', apiNotFound)
 

@@ -1,7 +1,7 @@
-import type { MySqlColumnBuilderBase } from 'drizzle-orm/mysql-core'
-import type { HistoryEntry } from '../../shared/schemas/entities'
+import type { EntityName } from '../../shared/schemas/entities'
+import type { HistoryEntry } from '../../shared/schemas/records'
 import { sql } from 'drizzle-orm'
-import { bigint, char, datetime, index, json, mysqlEnum, mysqlTable, primaryKey, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
+import { bigint, char, datetime, index, int, json, mysqlEnum, mysqlTable, primaryKey, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
 
 /** Every id is a UUID (v7 where the client makes it), kept as its 36-character text form. */
 const uuid = (name: string) => char(name, { length: 36 })
@@ -101,57 +101,56 @@ export const auditLog = mysqlTable('audit_log', {
 ])
 
 /**
- * A synced record table: the envelope every record shares, the phone's data as validated JSON (the
- * zod schemas in shared/schemas/entities.ts are its shape), what the server derives from it, and
- * the rev at which each field last changed, so edits of different fields merge instead of clashing.
- * References to other records get real, indexed columns.
+ * Every synced record of every entity, in one table: the envelope every record shares, the phone's
+ * data as validated JSON (the zod schemas in shared/schemas/entities.ts are its shape), what the
+ * server derives from it, and the rev at which each field last changed, so edits of different
+ * fields merge instead of clashing. A team's changes are one range of (team_id, rev), so a pull is
+ * one indexed query whatever the entity; `parent_id` is the record it belongs to
+ * (shared/records/registry.ts), indexed for "the readings of this brew" and the like.
  */
-function recordTable<T extends Record<string, MySqlColumnBuilderBase>>(name: string, references: T) {
-  return mysqlTable(name, {
-    id: uuid('id').primaryKey(),
-    teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),
-    createdBy: uuid('created_by').notNull(),
-    createdAt: createdAt(),
-    updatedAt: updatedAt(),
-    rev: bigint('rev', { mode: 'number', unsigned: true }).notNull(),
-    deletedAt: when('deleted_at'),
-    data: json('data').$type<Record<string, unknown>>().notNull(),
-    derived: json('derived').$type<Record<string, unknown>>(),
-    fieldRevs: json('field_revs').$type<Record<string, number>>().notNull(),
-    /** Every edit, delete and restore after creation, oldest first (HistoryEntry in shared/schemas). */
-    history: json('history').$type<HistoryEntry[]>(),
-    ...references,
-  }, table => [
-    index(`${name}_team_rev_idx`).on(table.teamId, table.rev),
-    ...Object.keys(references).map(key => index(`${name}_${key.replace(/[A-Z]/g, c => `_${c.toLowerCase()}`)}_idx`).on(table[key as keyof typeof table] as never)),
-  ])
-}
+export const records = mysqlTable('records', {
+  id: uuid('id').primaryKey(),
+  entity: varchar('entity', { length: 24 }).$type<EntityName>().notNull(),
+  teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),
+  createdBy: uuid('created_by').notNull(),
+  createdAt: createdAt(),
+  updatedAt: updatedAt(),
+  rev: bigint('rev', { mode: 'number', unsigned: true }).notNull(),
+  deletedAt: when('deleted_at'),
+  data: json('data').$type<Record<string, unknown>>().notNull(),
+  derived: json('derived').$type<Record<string, unknown>>(),
+  fieldRevs: json('field_revs').$type<Record<string, number>>().notNull(),
+  /** The latest edits, deletes and restores, oldest first; `record_history` keeps all of them. */
+  history: json('history').$type<HistoryEntry[]>(),
+  historyCount: int('history_count', { unsigned: true }).notNull().default(0),
+  parentId: uuid('parent_id'),
+}, table => [
+  uniqueIndex('records_team_rev_unique').on(table.teamId, table.rev),
+  index('records_parent_idx').on(table.parentId, table.entity),
+  index('records_team_entity_idx').on(table.teamId, table.entity),
+])
 
-const ref = (name: string) => uuid(name)
+/** Every history entry of every record, one row per record and rev: the full audit trail. */
+export const recordHistory = mysqlTable('record_history', {
+  recordId: uuid('record_id').notNull().references(() => records.id, { onDelete: 'cascade' }),
+  rev: bigint('rev', { mode: 'number', unsigned: true }).notNull(),
+  entry: json('entry').$type<HistoryEntry>().notNull(),
+}, table => [primaryKey({ columns: [table.recordId, table.rev] })])
 
-export const instruments = recordTable('instruments', {})
-export const calibrations = recordTable('calibrations', { instrumentId: ref('instrument_id') })
-export const brews = recordTable('brews', { contextRefId: ref('context_ref_id'), calibrationId: ref('calibration_id') })
-export const readings = recordTable('readings', { brewId: ref('brew_id') })
-export const events = recordTable('events', {})
-export const rounds = recordTable('rounds', { eventId: ref('event_id'), signedOffAt: when('signed_off_at'), signedOffBy: uuid('signed_off_by') })
-export const entries = recordTable('entries', { roundId: ref('round_id') })
-export const trips = recordTable('trips', {})
-export const lots = recordTable('lots', { tripId: ref('trip_id') })
-export const recipes = recordTable('recipes', {})
-export const zones = recordTable('zones', {})
-
-/** Per team, the last rev handed out. Locked inside each push, so commits happen in rev order. */
+/** Per team, the last rev handed out; made with the team and locked inside each push, so commits happen in rev order. */
 export const teamSyncState = mysqlTable('team_sync_state', {
   teamId: uuid('team_id').primaryKey().references(() => teams.id, { onDelete: 'cascade' }),
   lastRev: bigint('last_rev', { mode: 'number', unsigned: true }).notNull().default(0),
 })
 
-/** Every mutation a phone delivered, with the answer it got: a repeated delivery gets it again. */
+/**
+ * Every mutation a phone delivered, with the answer it got: a repeated delivery gets it again, but
+ * only from the person who sent it (an answer may hold the server's copy of a record).
+ */
 export const syncMutations = mysqlTable('sync_mutations', {
+  userId: uuid('user_id').notNull(),
   clientId: uuid('client_id').notNull(),
   mutationId: uuid('mutation_id').notNull(),
-  userId: uuid('user_id').notNull(),
   result: json('result').$type<Record<string, unknown>>().notNull(),
   createdAt: createdAt(),
-}, table => [primaryKey({ columns: [table.clientId, table.mutationId] })])
+}, table => [primaryKey({ columns: [table.userId, table.clientId, table.mutationId] })])

@@ -5,7 +5,7 @@ import { hashPassword } from '../services/passwords'
 import { createSyncService } from '../services/sync.service'
 import { createTeamsService } from '../services/teams.service'
 import { demoRecords } from './demo-records'
-import { memberships, teams, users } from './schema'
+import { memberships, teams, teamSyncState, users } from './schema'
 
 /**
  * The demo scenario. Everything here is invented: the town of Kestrel Quay, its harbour-side
@@ -33,6 +33,7 @@ export async function seedDemo(db: Db): Promise<boolean> {
   const ids = Object.fromEntries(demoAccounts.map(account => [account.role, uuidv7()])) as Record<(typeof demoAccounts)[number]['role'], string>
   await db.transaction(async (tx) => {
     await tx.insert(teams).values({ id: teamId, name: demoTeamName })
+    await tx.insert(teamSyncState).values({ teamId, lastRev: 0 })
     for (const account of demoAccounts) {
       await tx.insert(users).values({ id: ids[account.role], email: account.email, name: account.name, passwordHash })
       await tx.insert(memberships).values({ teamId, userId: ids[account.role], role: account.role })

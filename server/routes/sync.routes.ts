@@ -1,10 +1,10 @@
 import type { SyncService } from '../services/sync.service'
 import { Router } from 'express'
 import { z } from 'zod'
-import { IdSchema } from '../../shared/schemas/auth'
+import { IdSchema } from '../../shared/schemas/primitives'
 import { currentUserId } from '../middleware/auth'
 
-const RoundParams = z.object({ teamId: IdSchema, roundId: IdSchema })
+const RecordParams = z.object({ teamId: IdSchema, recordId: IdSchema })
 
 /** Offline phones push their outbox and pull the team's changes; every route is signed-in. */
 export function syncRoutes(sync: SyncService): Router {
@@ -15,9 +15,9 @@ export function syncRoutes(sync: SyncService): Router {
   router.get('/sync/pull', async (req, res) => {
     res.set('Cache-Control', 'no-store').json(await sync.pull(currentUserId(req), req.query))
   })
-  router.post('/teams/:teamId/rounds/:roundId/sign-off', async (req, res) => {
-    const { teamId, roundId } = RoundParams.parse(req.params)
-    res.json({ round: await sync.signOffRound(teamId, roundId, { userId: currentUserId(req) }) })
+  router.get('/teams/:teamId/records/:recordId/history', async (req, res) => {
+    const { teamId, recordId } = RecordParams.parse(req.params)
+    res.set('Cache-Control', 'no-store').json({ history: await sync.history(currentUserId(req), teamId, recordId) })
   })
   return router
 }

@@ -4,11 +4,12 @@ import type { Mailer } from '../mail/mailer'
 import type { TeamsService } from './teams.service'
 import { and, asc, eq, gt, isNull } from 'drizzle-orm'
 import { v7 as uuidv7 } from 'uuid'
+import { can } from '../../shared/records/rules'
 import { hashToken, newToken } from '../auth/one-time'
 import { invitations, memberships, teams, users } from '../db/schema'
 import { HttpError, notFoundError } from '../http-error'
 import { audit } from './audit.service'
-import { can, forbidden } from './teams.service'
+import { forbidden } from './teams.service'
 
 const invitationTtlMs = 7 * 24 * 60 * 60 * 1000
 

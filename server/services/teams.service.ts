@@ -2,19 +2,12 @@ import type { Member, Membership, Role, TeamResponse } from '../../shared/schema
 import type { Db } from '../db/client'
 import { and, asc, eq, sql } from 'drizzle-orm'
 import { v7 as uuidv7 } from 'uuid'
-import { memberships, teams, users } from '../db/schema'
+import { can } from '../../shared/records/rules'
+import { memberships, teams, teamSyncState, users } from '../db/schema'
 import { HttpError, notFoundError } from '../http-error'
 import { audit } from './audit.service'
 
 interface Actor { userId: string, ip?: string }
-
-/** Who may do what (DESIGN.md): enforced here, on the server, for every route. */
-export const can = {
-  editTeam: (role: Role) => role === 'owner',
-  manageMembers: (role: Role) => role === 'owner',
-  invite: (role: Role, invitedRole: Role) => role === 'owner' || (role === 'lead' && (invitedRole === 'member' || invitedRole === 'viewer')),
-  seeInvitations: (role: Role) => role === 'owner' || role === 'lead',
-}
 
 export const forbidden = (message: string): HttpError => new HttpError(403, 'forbidden', message)
 
@@ -76,6 +69,8 @@ export function createTeamsService(db: Db) {
       await db.transaction(async (tx) => {
         await tx.insert(teams).values({ id, name })
         await tx.insert(memberships).values({ teamId: id, userId: actor.userId, role: 'owner' })
+        // The sync counter comes with the team, so a push only ever locks a row that exists.
+        await tx.insert(teamSyncState).values({ teamId: id, lastRev: 0 })
         await audit(tx, { action: 'team.created', actorId: actor.userId, teamId: id, subjectId: id, ip: actor.ip })
       })
       return teamFor(id, actor.userId)

@@ -51,3 +51,17 @@ function dixonOutlier(values: readonly number[]): ReadingsSummary['outlier'] {
   const q = Math.max(lowGap, highGap) / range
   return q > critical ? { index: suspect.index, value: suspect.value, q, critical } : null
 }
+
+/**
+ * The range a reading of each kind must fall in to be a reading of brewed coffee or of a sucrose
+ * standard, with an example for the hint. Refractive index: water reads 1.3330 at 20 °C and 85 %
+ * sucrose about 1.503 (ICUMSA table); °Brix from 0 to 85 (the same table's span); %TDS up to 30,
+ * past the strongest espresso (common practice). A zero check may read a hair below zero.
+ */
+export const readingRanges = {
+  nD: { min: 1.3, max: 1.7, example: '1.3357', step: 0.00001 },
+  brix: { min: -1, max: 85, example: '1.62', step: 0.01 },
+  tds: { min: -1, max: 30, example: '1.38', step: 0.01 },
+} as const satisfies Record<'nD' | 'brix' | 'tds', { min: number, max: number, example: string, step: number }>
+// `step` is the display step of a reading typed without an instrument: what coffee refractometers
+// show for %TDS and °Brix, and a bench refractometer's fifth decimal of nD (common practice).

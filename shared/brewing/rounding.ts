@@ -55,3 +55,22 @@ export const formatYield = (yieldPercent: number): string => roundHalfUp(yieldPe
 export function formatMass(mass: number, resolution = 0.1): string {
   return roundToResolution(mass, resolution).toFixed(decimalsForResolution(resolution))
 }
+
+/** A value at a step (a scale's or an instrument's resolution), e.g. `1.30` at 0.01 or `1.33570` at 0.00001. */
+export function formatAtStep(value: number, step: number): string {
+  return roundToResolution(value, step).toFixed(decimalsForResolution(step))
+}
+
+/**
+ * The step of a scale that recorded these masses: the finest step their digits show, and never
+ * coarser than 0.1 g, the resolution of a common brew scale (common practice). 8.25 g → 0.01 g,
+ * 15 g → 0.1 g, 652.6 g → 0.1 g.
+ */
+export function scaleStepOf(...masses: (number | null | undefined)[]): number {
+  let decimals = 1
+  for (const mass of masses) {
+    if (typeof mass === 'number' && Number.isFinite(mass) && mass !== 0)
+      decimals = Math.max(decimals, Math.min(6, decimalsForResolution(Math.abs(mass))))
+  }
+  return Number(`1e-${decimals}`)
+}

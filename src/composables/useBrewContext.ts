@@ -1,7 +1,8 @@
 import type { Ref } from 'vue'
+import type { BrewContext, ContextKind } from '../../shared/schemas/entities'
 import type { LocalRecord } from '../db/database'
-import type { BrewForm, ContextKind } from './useBrewForm'
-import { cuppingDose } from '../../shared/brewing'
+import type { BrewForm } from './useBrewForm'
+import { cuppingDose, formatMass } from '../../shared/brewing'
 import { db } from '../db/database'
 import { formatDuration, numberText } from '../forms/numbers'
 import { capital } from '../forms/words'
@@ -10,79 +11,96 @@ import { useLiveQuery } from './useLiveQuery'
 /** What a brew was measured for, in words, with what it brings to the form. */
 export interface BrewContextView {
   kind: ContextKind
+  /** The recipe, lot or event entry; null for a quick brew or one not on this phone. */
+  refId: string | null
   title: string
   detail: string
-  /** The record itself: the recipe, the lot or the event entry. */
-  record: LocalRecord | null
+  /** What choosing it fills in: a recipe's method and settings, a cupping's immersion. */
+  defaults: Partial<BrewForm>
   /** An event entry is judged against the event's zone. */
   zoneId: string | null
   /** An entry in a signed-off round takes no more brews. */
   closed: boolean
 }
 
-const quick: BrewContextView = { kind: 'quick', title: 'Quick brew', detail: 'Not tied to a recipe, a lot or an event.', record: null, zoneId: null, closed: false }
+const quick: BrewContextView = { kind: 'quick', refId: null, title: 'Quick brew', detail: 'Not tied to a recipe, a lot or an event.', defaults: {}, zoneId: null, closed: false }
 
-const tables = { recipe: db.recipes, lot: db.lots, entry: db.entries } as const
+type ContextEntity = Exclude<ContextKind, 'quick'>
+type ContextRecord = { [K in ContextEntity]: { kind: K, record: LocalRecord<K> } }[ContextEntity]
 
 /** Resolves a context from the phone's store; a record not (or no longer) here reads as missing. */
-export async function describeContext(kind: ContextKind, refId: string | null): Promise<BrewContextView> {
+export async function describeContext(context: BrewContext): Promise<BrewContextView> {
+  const { kind, refId } = context
   if (kind === 'quick' || !refId)
     return quick
-  const record = await tables[kind].get(refId)
-  if (!record || record.deletedAt)
+  const found = await findContext(kind, refId)
+  if (!found || found.record.deletedAt)
     return { ...quick, kind, title: 'Not on this phone', detail: 'The record this brew belongs to has not synced here, or was deleted.' }
-  return describeRecord(kind, record)
+  return describeRecord(found)
+}
+
+async function findContext(kind: ContextEntity, id: string): Promise<ContextRecord | undefined> {
+  if (kind === 'recipe') {
+    const record = await db.recipes.get(id)
+    return record && { kind, record }
+  }
+  if (kind === 'lot') {
+    const record = await db.lots.get(id)
+    return record && { kind, record }
+  }
+  const record = await db.entries.get(id)
+  return record && { kind, record }
 }
 
 /** A recipe, lot or event entry already read, in words, with what it points at (trip, round, event). */
-async function describeRecord(kind: Exclude<ContextKind, 'quick'>, record: LocalRecord): Promise<BrewContextView> {
-  if (kind === 'recipe')
-    return { ...quick, kind, record, title: `Recipe: ${record.name}`, detail: `${capital(String(record.method))} · ${record.dose} g in ${record.waterMass} g of water` }
-  if (kind === 'lot') {
-    const trip = typeof record.tripId === 'string' ? await db.trips.get(record.tripId) : undefined
+async function describeRecord(found: ContextRecord): Promise<BrewContextView> {
+  const base = { ...quick, kind: found.kind, refId: found.record.id }
+  if (found.kind === 'recipe') {
+    const recipe = found.record
+    return {
+      ...base,
+      title: `Recipe: ${recipe.name}`,
+      detail: `${capital(recipe.method)} · ${formatMass(recipe.dose)} g in ${formatMass(recipe.waterMass)} g of water`,
+      defaults: { method: recipe.method, waterMass: numberText(recipe.waterMass), grindSetting: recipe.grindSetting, contactTime: formatDuration(recipe.contactTimeSeconds), waterTemperature: numberText(recipe.waterTemperatureC) },
+    }
+  }
+  if (found.kind === 'lot') {
+    const lot = found.record
+    const trip = lot.tripId ? await db.trips.get(lot.tripId) : undefined
     // SCA cupping protocol: 8.25 g ± 0.25 g of coffee per 150 mL of water.
     const bowl = cuppingDose(150)
-    const cupping = `cupping bowl: ${bowl.dose.toFixed(2)} g (${bowl.min.toFixed(2)}–${bowl.max.toFixed(2)}) per 150 mL`
-    return { ...quick, kind, record, title: `Lot: ${record.farm}`, detail: [record.region, record.variety, record.process, trip?.name, cupping].filter(Boolean).join(' · ') }
+    const cupping = `cupping bowl: ${formatMass(bowl.dose, 0.01)} g (${formatMass(bowl.min, 0.01)}–${formatMass(bowl.max, 0.01)}) per 150 mL`
+    return { ...base, title: `Lot: ${lot.farm}`, detail: [lot.region, lot.variety, lot.process, trip?.name, cupping].filter(Boolean).join(' · '), defaults: { method: 'immersion' } }
   }
-  const round = await db.rounds.get(String(record.roundId))
-  const event = round ? await db.events.get(String(round.eventId)) : undefined
+  const entry = found.record
+  const round = await db.rounds.get(entry.roundId)
+  const event = round ? await db.events.get(round.eventId) : undefined
   return {
-    ...quick,
-    kind,
-    record,
-    title: `Cup ${record.code}${round ? ` · ${round.name}` : ''}`,
-    detail: event ? String(event.name) : '',
-    zoneId: typeof event?.zoneId === 'string' ? event.zoneId : null,
-    closed: Boolean(round?.signedOffAt),
+    ...base,
+    title: `Cup ${entry.code}${round ? ` · ${round.name}` : ''}`,
+    detail: event?.name ?? '',
+    zoneId: event?.zoneId ?? null,
+    closed: Boolean(round?.derived),
   }
 }
 
-export function useBrewContext(context: Ref<{ kind: ContextKind, refId: string | null }>) {
-  return useLiveQuery(() => describeContext(context.value.kind, context.value.refId), quick, context)
+export function useBrewContext(context: Ref<BrewContext>) {
+  return useLiveQuery(() => describeContext(context.value), quick, context)
 }
 
 /** Everything a brew can be measured for on this team, for the picker. */
 export async function contextChoices(teamId: string): Promise<BrewContextView[]> {
-  const kinds = Object.keys(tables) as (keyof typeof tables)[]
-  const found = await Promise.all(kinds.map(kind => tables[kind].where('teamId').equals(teamId).filter(row => !row.deletedAt).toArray()))
-  const views = await Promise.all(kinds.flatMap((kind, index) => found[index]!.map(record => describeRecord(kind, record))))
+  const open = <T extends { deletedAt: string | null }>(rows: T[]): T[] => rows.filter(row => !row.deletedAt)
+  const [recipes, lots, entries] = await Promise.all([
+    db.recipes.where('teamId').equals(teamId).toArray(),
+    db.lots.where('teamId').equals(teamId).toArray(),
+    db.entries.where('teamId').equals(teamId).toArray(),
+  ])
+  const found: ContextRecord[] = [
+    ...open(recipes).map(record => ({ kind: 'recipe' as const, record })),
+    ...open(lots).map(record => ({ kind: 'lot' as const, record })),
+    ...open(entries).map(record => ({ kind: 'entry' as const, record })),
+  ]
+  const views = await Promise.all(found.map(describeRecord))
   return [quick, ...views.filter(view => !view.closed).sort((a, b) => a.kind.localeCompare(b.kind) || a.title.localeCompare(b.title))]
-}
-
-/** What choosing a context fills in: a recipe's method and settings, a cupping's immersion. */
-export function contextDefaults(view: BrewContextView): Partial<BrewForm> {
-  const record = view.record
-  if (view.kind === 'recipe' && record) {
-    return {
-      method: record.method as BrewForm['method'],
-      waterMass: numberText(record.waterMass),
-      grindSetting: String(record.grindSetting ?? ''),
-      contactTime: formatDuration(record.contactTimeSeconds as number | null),
-      waterTemperature: numberText(record.waterTemperatureC),
-    }
-  }
-  if (view.kind === 'lot')
-    return { method: 'immersion' }
-  return {}
 }

@@ -1,18 +1,17 @@
 import type { InjectionKey, Ref } from 'vue'
 import type { BrewInput, BrewMethod, BrewResult, BrewUncertainty, ReadingKind, ReadingsSummary, Zone, ZoneVerdict } from '../../shared/brewing'
+import type { BrewContext } from '../../shared/schemas/entities'
 import type { Gauge } from './useGauges'
 import { computed, inject, reactive, watch } from 'vue'
 import { brewRatio, brewUncertainty, computeBrew, defaultRetainedRatio, summarizeReadings, zoneVerdict } from '../../shared/brewing'
 import { readDuration, readNumber } from '../forms/numbers'
-
-export type ContextKind = 'quick' | 'entry' | 'lot' | 'recipe'
 
 /** One reading in the form: stored ones carry their id and can only be set aside, never removed. */
 export interface BrewFormReading { value: number, id?: string, excluded: boolean }
 
 /** What the person types, as typed: numbers stay text until they are read. */
 export interface BrewForm {
-  context: { kind: ContextKind, refId: string | null }
+  context: BrewContext
   method: BrewMethod
   /** The refractometer used, or null for readings typed as %TDS or °Brix without one. */
   instrumentId: string | null
@@ -78,7 +77,7 @@ export interface StrengthSource {
 export function strengthSourceOf(gauge: Gauge | null, manualSource: BrewForm['manualSource']): StrengthSource {
   if (!gauge)
     return { source: manualSource, kind: manualSource === 'direct' ? 'tds' : 'brix', calibration: null, usesFactor: manualSource === 'brix-factor', repeatability: manualRepeatability[manualSource] }
-  const repeatability = Number(gauge.instrument.repeatability)
+  const repeatability = gauge.instrument.repeatability
   if (gauge.fit)
     return { source: 'calibration', kind: gauge.kind, calibration: { fit: gauge.fit, standardUnit: gauge.standardUnit! }, usesFactor: gauge.standardUnit === 'brix', repeatability }
   // Not calibrated: %TDS and °Brix readings still work; nD readings need a line.

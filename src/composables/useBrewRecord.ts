@@ -4,12 +4,12 @@ import { db } from '../db/database'
 import { useLiveQuery } from './useLiveQuery'
 
 export interface BrewRecordView {
-  brew: LocalRecord | undefined
+  brew: LocalRecord<'brew'> | undefined
   /** Every reading of the brew, in the order taken (set-aside ones included). */
-  readings: LocalRecord[]
-  instrument: LocalRecord | undefined
+  readings: LocalRecord<'reading'>[]
+  instrument: LocalRecord<'instrument'> | undefined
   /** The calibration the brew was measured through, which may no longer be the active one. */
-  calibration: LocalRecord | undefined
+  calibration: LocalRecord<'calibration'> | undefined
   /** Changes made on this phone that the server has not answered yet. */
   queued: OutboxEntry[]
 }
@@ -22,9 +22,9 @@ export function useBrewRecord(id: Ref<string>) {
     const brew = await db.brews.get(id.value)
     if (!brew)
       return empty
-    const readings = (await db.readings.where('brewId').equals(brew.id).toArray()).sort((a, b) => String(a.takenAt).localeCompare(String(b.takenAt)) || a.id.localeCompare(b.id))
-    const instrument = typeof brew.instrumentId === 'string' ? await db.instruments.get(brew.instrumentId) : undefined
-    const calibration = typeof brew.calibrationId === 'string' ? await db.calibrations.get(brew.calibrationId) : undefined
+    const readings = (await db.readings.where('brewId').equals(brew.id).toArray()).sort((a, b) => a.takenAt.localeCompare(b.takenAt) || a.id.localeCompare(b.id))
+    const instrument = brew.instrumentId ? await db.instruments.get(brew.instrumentId) : undefined
+    const calibration = brew.calibrationId ? await db.calibrations.get(brew.calibrationId) : undefined
     const queued = await db.outbox.where('id').equals(brew.id).toArray()
     return { brew, readings, instrument, calibration, queued }
   }, empty, id)

@@ -1,9 +1,10 @@
 import type { Ref } from 'vue'
 import type { Zone } from '../../shared/brewing'
+import type { ContextKind } from '../../shared/schemas/entities'
 import type { LocalRecord } from '../db/database'
-import type { ContextKind } from './useBrewForm'
 import { computed, ref } from 'vue'
 import { computeBrew, formatTds, formatYield, roundHalfUp, zoneVerdict } from '../../shared/brewing'
+import { brewInputOf } from '../../shared/records/brew-input'
 import { brewsNewestFirst } from '../db/queries'
 import { useLiveQuery } from './useLiveQuery'
 
@@ -31,11 +32,12 @@ export const noFilters: LedgerFilters = { method: 'all', period: 'all', from: ''
 const filters = ref<LedgerFilters>({ ...noFilters })
 
 const dayMs = 24 * 60 * 60 * 1000
-const tdsOf = (brew: LocalRecord): number | null => (typeof brew.derived?.tdsPercent === 'number' ? brew.derived.tdsPercent : null)
-const eyOf = (brew: LocalRecord): number | null => (typeof brew.derived?.yieldPercent === 'number' ? brew.derived.yieldPercent : null)
+type Brew = LocalRecord<'brew'>
+const tdsOf = (brew: Brew): number | null => brew.derived?.tdsPercent ?? null
+const eyOf = (brew: Brew): number | null => brew.derived?.yieldPercent ?? null
 
 /** Whether a brew's figures sit in the zone; null when they are not known yet. */
-export function inZone(brew: LocalRecord, zone: Zone): boolean | null {
+export function inZone(brew: Brew, zone: Zone): boolean | null {
   const tds = tdsOf(brew)
   const ey = eyOf(brew)
   return tds !== null && ey !== null ? zoneVerdict(zone, { tdsPercent: tds, yieldPercent: ey }).inZone : null
@@ -56,60 +58,60 @@ function span(f: LedgerFilters, now: number): [number, number] {
 }
 
 /** The brews a set of filters keeps, in the order given. */
-export function filterBrews(brews: LocalRecord[], f: LedgerFilters, zoneFor: ZoneFor, now = Date.now()): LocalRecord[] {
+export function filterBrews(brews: Brew[], f: LedgerFilters, zoneFor: ZoneFor, now = Date.now()): Brew[] {
   const [start, end] = span(f, now)
   const words = f.search.trim().toLowerCase()
   return brews.filter((brew) => {
-    const at = Date.parse(String(brew.brewedAt))
+    const at = Date.parse(brew.brewedAt)
     if (f.method !== 'all' && brew.method !== f.method)
       return false
     if (at < start || at >= end)
       return false
-    if (f.context !== 'all' && (brew.context as { kind?: string } | undefined)?.kind !== f.context)
+    if (f.context !== 'all' && brew.context.kind !== f.context)
       return false
-    if (f.zone !== 'all' && inZone(brew, zoneFor(String(brew.method))) !== (f.zone === 'in'))
+    if (f.zone !== 'all' && inZone(brew, zoneFor(brew.method)) !== (f.zone === 'in'))
       return false
-    return !words || `${brew.notes ?? ''} ${brew.grindSetting ?? ''}`.toLowerCase().includes(words)
+    return !words || `${brew.notes} ${brew.grindSetting}`.toLowerCase().includes(words)
   })
 }
 
 /** The team's brews on this phone, newest first, through the filters the Ledger and Zone share. */
 export function useLedger(teamId: Ref<string | null>, zoneFor: ZoneFor) {
-  const { value: brews, state } = useLiveQuery(async () => (teamId.value ? brewsNewestFirst(teamId.value) : []), [] as LocalRecord[], teamId)
+  const { value: brews, state } = useLiveQuery(async () => (teamId.value ? brewsNewestFirst(teamId.value) : []), [] as Brew[], teamId)
   const shown = computed(() => filterBrews(brews.value, filters.value, zoneFor))
   const filtered = computed(() => Object.entries(filters.value).some(([key, value]) => value !== noFilters[key as keyof LedgerFilters]))
   return { filters, brews, shown, filtered, state }
 }
 
-const contextWords: Record<string, string> = { quick: 'quick brew', entry: 'event entry', lot: 'lot', recipe: 'recipe' }
+const contextWords: Record<ContextKind, string> = { quick: 'quick brew', entry: 'event entry', lot: 'lot', recipe: 'recipe' }
 
 /** The rows of the CSV export, with units in the headers. */
-export function ledgerRows(brews: LocalRecord[], zoneFor: ZoneFor, nameOf: (userId: string) => string = () => ''): Record<string, string | number>[] {
-  const number = (value: unknown): number | string => (typeof value === 'number' ? value : '')
+export function ledgerRows(brews: Brew[], zoneFor: ZoneFor, nameOf: (userId: string) => string = () => ''): Record<string, string | number>[] {
+  const number = (value: number | null): number | string => value ?? ''
   // Net masses as the core computes them (gross minus tare where weighed so), to 2 decimals.
-  const masses = (brew: LocalRecord) => computeBrew({ ...(brew as never as Parameters<typeof computeBrew>[0]), readings: [] })
+  const masses = (brew: Brew) => computeBrew(brewInputOf(brew, [], null))
   const grams = (value: number | null): number | string => (value === null ? '' : roundHalfUp(value, 2))
   return brews.map((brew) => {
     const { dose, beverageMass, beverageEstimated } = masses(brew)
-    const zone = zoneFor(String(brew.method))
+    const zone = zoneFor(brew.method)
     const inside = inZone(brew, zone)
     return {
-      'brewed at (ISO 8601)': String(brew.brewedAt),
-      'method': String(brew.method),
-      'context': contextWords[(brew.context as { kind?: string } | undefined)?.kind ?? 'quick'] ?? '',
+      'brewed at (ISO 8601)': brew.brewedAt,
+      'method': brew.method,
+      'context': contextWords[brew.context.kind],
       'TDS (%)': tdsOf(brew) === null ? '' : formatTds(tdsOf(brew)!),
       'extraction yield (%)': eyOf(brew) === null ? '' : formatYield(eyOf(brew)!),
       'dose (g)': grams(dose),
       'beverage (g)': grams(beverageEstimated ? null : beverageMass),
       'water (g)': number(brew.waterMass),
       'LRR (g/g)': number(brew.retainedRatio),
-      'grind setting': String(brew.grindSetting ?? ''),
+      'grind setting': brew.grindSetting,
       'contact time (s)': number(brew.contactTimeSeconds),
       'water temperature (°C)': number(brew.waterTemperatureC),
       'zone': zone.name,
       'in zone': inside === null ? '' : inside ? 'yes' : 'no',
       'recorded by': nameOf(brew.createdBy),
-      'notes': String(brew.notes ?? ''),
+      'notes': brew.notes,
       'synced': brew.sync.state === 'clean' ? 'yes' : 'no',
     }
   })

@@ -7,9 +7,9 @@ import { db } from '../db/database'
 import { useLiveQuery } from './useLiveQuery'
 
 /** A team zone record as the core's Zone; null if it no longer checks out. */
-export function zoneOf(record: LocalRecord): Zone | null {
+export function zoneOf(record: LocalRecord<'zone'>): Zone | null {
   try {
-    return defineZone({ id: record.id, name: String(record.name), tdsPercent: record.tdsPercent as Zone['tdsPercent'], yieldPercent: record.yieldPercent as Zone['yieldPercent'], source: 'Team zone' })
+    return defineZone({ id: record.id, name: record.name, tdsPercent: record.tdsPercent, yieldPercent: record.yieldPercent, source: 'Team zone' })
   }
   catch (error) {
     if (error instanceof BrewingInputError)
@@ -24,12 +24,12 @@ export function zoneOf(record: LocalRecord): Zone | null {
  * plus the one the Zone tab shows. A team zone deleted meanwhile falls back to the family's preset.
  */
 export function useTeamZones(teamId: Ref<string | null>) {
-  const { value: records } = useLiveQuery(async () => (teamId.value ? (await db.zones.where('teamId').equals(teamId.value).toArray()).filter(z => !z.deletedAt) : []), [] as LocalRecord[], teamId)
+  const { value: records } = useLiveQuery(async () => (teamId.value ? (await db.zones.where('teamId').equals(teamId.value).toArray()).filter(z => !z.deletedAt) : []), [] as LocalRecord<'zone'>[], teamId)
   const { value: chosen } = useLiveQuery(async () => {
     const keys = ['shown', 'filter', 'espresso'].map(part => `zone:${teamId.value}:${part}`)
-    const [shown, filter, espresso] = (await db.meta.bulkGet(keys)).map(entry => entry?.value as string | undefined)
+    const [shown, filter, espresso] = (await db.meta.bulkGet(keys)).map(entry => (typeof entry?.value === 'string' ? entry.value : undefined))
     return { shown, filter, espresso }
-  }, {} as Record<'shown' | ZoneFamily, string | undefined>, teamId)
+  }, {} as Partial<Record<'shown' | ZoneFamily, string>>, teamId)
   const teamZones = computed(() => records.value.flatMap(record => zoneOf(record) ?? []).sort((a, b) => a.name.localeCompare(b.name)))
   const zones = computed<Zone[]>(() => [...zonePresets, ...teamZones.value])
   const find = (id: string | null | undefined): Zone | undefined => (id ? findZonePreset(id) ?? teamZones.value.find(zone => zone.id === id) : undefined)

@@ -1,6 +1,8 @@
 import type { Table } from 'dexie'
 import type { Membership, User } from '../../shared/schemas/auth'
-import type { EntityName, HistoryEntry, MutationResult } from '../../shared/schemas/entities'
+import type { EntityName } from '../../shared/schemas/entities'
+import type { EntityRecord } from '../../shared/schemas/records'
+import type { MutationResult } from '../../shared/schemas/sync'
 import Dexie from 'dexie'
 
 /** Who was signed in on this phone, so the app opens offline under that identity. No tokens. */
@@ -17,29 +19,26 @@ export interface CachedIdentity {
  * outbox. conflict: the server changed the same fields; both copies are kept for the person to
  * choose. rejected: the server refused; the reason is kept until the person fixes or discards it.
  */
-export interface LocalSync {
+export interface LocalSync<E extends EntityName = EntityName> {
   state: 'clean' | 'pending' | 'conflict' | 'rejected'
   /** The server rev this copy is based on (null: never reached the server). */
   baseRev: number | null
   reason?: string
-  server?: Record<string, unknown>
+  /** The server's copy, for a conflict. */
+  server?: EntityRecord<E>
 }
 
-/** A record as stored on the phone: the server's shape plus its local sync state. */
-export interface LocalRecord {
-  id: string
-  teamId: string
-  createdBy: string
-  createdAt: string
-  updatedAt: string
-  rev: number | null
-  deletedAt: string | null
-  derived?: Record<string, unknown> | null
-  /** Edits, deletes and restores as the server recorded them (none yet for a record new here). */
-  history?: HistoryEntry[]
-  sync: LocalSync
-  [field: string]: unknown
+/** A record as stored on the phone: the server's shape (rev null until it has one) plus its sync state. */
+export type LocalRecord<E extends EntityName> = Omit<EntityRecord<E>, 'rev'> & { rev: number | null, sync: LocalSync<E> }
+
+/** The phone's copy of a record the server sent, in the given sync state. */
+export function localCopy<E extends EntityName>(record: EntityRecord<E>, sync: LocalSync<E>): LocalRecord<E> {
+  // A record with a server rev and a sync state is a LocalRecord (TypeScript cannot follow the spread of a generic record).
+  return { ...record, sync } as LocalRecord<E>
 }
+
+/** A record of any entity, for lists that mix them. */
+export type AnyLocalRecord = { [E in EntityName]: LocalRecord<E> }[EntityName]
 
 /** One change waiting to reach the server, in the order it was made. */
 export interface OutboxEntry {
@@ -49,7 +48,7 @@ export interface OutboxEntry {
   op: 'put' | 'delete' | 'restore'
   id: string
   teamId: string
-  /** All fields for a new record; only the changed ones for an edit. */
+  /** All fields for a new record; only the changed ones for an edit (checked by the server). */
   data?: Record<string, unknown>
   baseRev: number | null
   /** Why the record was changed, for its history (a teammate's brew needs one). */
@@ -63,10 +62,10 @@ export interface OutboxEntry {
 
 export interface MetaEntry { key: string, value: unknown }
 
-export const recordTables = ['instruments', 'calibrations', 'brews', 'readings', 'events', 'rounds', 'entries', 'trips', 'lots', 'recipes', 'zones'] as const
-export type RecordTableName = (typeof recordTables)[number]
+/** Each entity's table, typed by its record. */
+export type RecordTables = { [E in EntityName]: Table<LocalRecord<E>, string> }
 
-export const tableOf: Record<EntityName, RecordTableName> = {
+export const tableOf = {
   instrument: 'instruments',
   calibration: 'calibrations',
   brew: 'brews',
@@ -78,24 +77,27 @@ export const tableOf: Record<EntityName, RecordTableName> = {
   lot: 'lots',
   recipe: 'recipes',
   zone: 'zones',
-}
+} as const satisfies Record<EntityName, string>
+export type RecordTableName = (typeof tableOf)[EntityName]
 
 /** The one IndexedDB database of the app. Versions are only ever appended, never edited. */
 export class LixiviaDatabase extends Dexie {
   identity!: Table<CachedIdentity, 'current'>
   outbox!: Table<OutboxEntry, number>
   meta!: Table<MetaEntry, string>
-  instruments!: Table<LocalRecord, string>
-  calibrations!: Table<LocalRecord, string>
-  brews!: Table<LocalRecord, string>
-  readings!: Table<LocalRecord, string>
-  events!: Table<LocalRecord, string>
-  rounds!: Table<LocalRecord, string>
-  entries!: Table<LocalRecord, string>
-  trips!: Table<LocalRecord, string>
-  lots!: Table<LocalRecord, string>
-  recipes!: Table<LocalRecord, string>
-  zones!: Table<LocalRecord, string>
+  instruments!: RecordTables['instrument']
+  calibrations!: RecordTables['calibration']
+  brews!: RecordTables['brew']
+  readings!: RecordTables['reading']
+  events!: RecordTables['event']
+  rounds!: RecordTables['round']
+  entries!: RecordTables['entry']
+  trips!: RecordTables['trip']
+  lots!: RecordTables['lot']
+  recipes!: RecordTables['recipe']
+  zones!: RecordTables['zone']
+  /** The record tables by entity, for code that handles any entity. */
+  readonly records: RecordTables
 
   constructor(name = 'lixivia') {
     super(name)
@@ -115,6 +117,24 @@ export class LixiviaDatabase extends Dexie {
       recipes: 'id, teamId, [teamId+updatedAt], sync.state',
     })
     this.version(3).stores({ zones: 'id, teamId, [teamId+updatedAt], sync.state' })
+    this.records = {
+      instrument: this.instruments,
+      calibration: this.calibrations,
+      brew: this.brews,
+      reading: this.readings,
+      event: this.events,
+      round: this.rounds,
+      entry: this.entries,
+      trip: this.trips,
+      lot: this.lots,
+      recipe: this.recipes,
+      zone: this.zones,
+    }
+  }
+
+  /** Every record table, for transactions that may touch any of them. */
+  get recordTables(): Table[] {
+    return Object.values(this.records)
   }
 }
 

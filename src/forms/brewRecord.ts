@@ -1,15 +1,20 @@
-import type { BrewInput } from '../../shared/brewing'
-import type { BrewForm, BrewOutcome, ContextKind } from '../composables/useBrewForm'
+import type { EntityData } from '../../shared/schemas/entities'
+import type { BrewForm, BrewOutcome } from '../composables/useBrewForm'
 import type { Gauge } from '../composables/useGauges'
 import type { LocalRecord } from '../db/database'
+import { weighedByDifference } from '../../shared/records/brew-input'
 import { emptyBrewForm, lrrText } from '../composables/useBrewForm'
-import { fitOf } from '../composables/useGauges'
 import { formatDuration, numberText, readDuration, readNumber } from './numbers'
 
 const blank = (text: string): number | null => readNumber(text).value
 
+/** A brew's fields as the form gives them; `brewedAt` is added when it is first saved. */
+export type BrewFields = Omit<EntityData<'brew'>, 'brewedAt'>
+/** A reading typed on the form, before it knows its brew. */
+export type ReadingFields = Omit<EntityData<'reading'>, 'brewId'>
+
 /** The brew record's fields from the form, as the brew schema (shared/schemas/entities.ts) has them. */
-export function brewDataOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge | null): Record<string, unknown> {
+export function brewDataOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge | null): BrewFields {
   const { strength, result } = outcome
   return {
     context: { ...form.context },
@@ -33,7 +38,7 @@ export function brewDataOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge | 
 }
 
 /** The readings typed on this screen, not yet stored, as reading records. */
-export function newReadingsOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge | null, takenAt: string): Record<string, unknown>[] {
+export function newReadingsOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge | null, takenAt: string): ReadingFields[] {
   return form.readings.filter(reading => !reading.id).map(reading => ({
     value: reading.value,
     kind: outcome.strength.kind,
@@ -44,18 +49,14 @@ export function newReadingsOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge
   }))
 }
 
-/** Whether a stored brew's masses were weighed as gross and tare (else as net masses). */
-export const weighedByDifference = (brew: LocalRecord): boolean => brew.doseGross != null || brew.beverageGross != null
-
 /** A stored brew back in the form, to edit it: readings keep their ids and can only be set aside. */
-export function formOfBrew(brew: LocalRecord, readings: LocalRecord[]): BrewForm {
-  const excluded = new Set((brew.excludedReadingIds as string[] | undefined) ?? [])
-  const context = brew.context as { kind: ContextKind, refId: string | null }
+export function formOfBrew(brew: EntityData<'brew'>, readings: readonly Pick<LocalRecord<'reading'>, 'id' | 'value'>[]): BrewForm {
+  const excluded = new Set(brew.excludedReadingIds)
   return {
     ...emptyBrewForm(),
-    context: { kind: context.kind, refId: context.refId },
-    method: brew.method as BrewForm['method'],
-    instrumentId: (brew.instrumentId as string | null) ?? null,
+    context: { kind: brew.context.kind, refId: brew.context.refId },
+    method: brew.method,
+    instrumentId: brew.instrumentId,
     manualSource: brew.strengthSource === 'brix-factor' ? 'brix-factor' : 'direct',
     brixFactor: numberText(brew.brixFactor) || '0.85',
     byDifference: weighedByDifference(brew),
@@ -66,22 +67,11 @@ export function formOfBrew(brew: LocalRecord, readings: LocalRecord[]): BrewForm
     beverageGross: numberText(brew.beverageGross),
     beverageTare: numberText(brew.beverageTare),
     waterMass: numberText(brew.waterMass),
-    retainedRatio: numberText(brew.retainedRatio) || lrrText(brew.method as BrewForm['method']),
-    grindSetting: String(brew.grindSetting ?? ''),
-    contactTime: formatDuration(brew.contactTimeSeconds as number | null),
+    retainedRatio: numberText(brew.retainedRatio) || lrrText(brew.method),
+    grindSetting: brew.grindSetting,
+    contactTime: formatDuration(brew.contactTimeSeconds),
     waterTemperature: numberText(brew.waterTemperatureC),
-    notes: String(brew.notes ?? ''),
-    readings: readings.map(reading => ({ id: reading.id, value: Number(reading.value), excluded: excluded.has(reading.id) })),
-  }
-}
-
-/** A stored brew as the core's input: its readings but the set-aside ones, through its calibration. */
-export function brewInputOf(brew: LocalRecord, readings: LocalRecord[], calibration: LocalRecord | undefined): BrewInput {
-  const excluded = new Set((brew.excludedReadingIds as string[] | undefined) ?? [])
-  const fit = fitOf(calibration)
-  return {
-    ...(brew as unknown as Omit<BrewInput, 'readings' | 'calibration'>),
-    readings: readings.filter(reading => !excluded.has(reading.id)).map(reading => Number(reading.value)),
-    calibration: fit ? { fit, standardUnit: calibration!.standardUnit as 'brix' | 'tds' } : null,
+    notes: brew.notes,
+    readings: readings.map(reading => ({ id: reading.id, value: reading.value, excluded: excluded.has(reading.id) })),
   }
 }

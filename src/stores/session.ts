@@ -1,3 +1,4 @@
+import type { Actor } from '../../shared/records/rules'
 import type { Membership, Role, User } from '../../shared/schemas/auth'
 import { defineStore } from 'pinia'
 import { computed, ref, toRaw } from 'vue'
@@ -21,6 +22,8 @@ export const useSessionStore = defineStore('session', () => {
   const activeMembership = computed(() => memberships.value.find(m => m.teamId === activeTeamId.value) ?? null)
   const role = computed<Role | null>(() => activeMembership.value?.role ?? null)
   const canManageTeam = computed(() => role.value === 'owner' || role.value === 'lead')
+  /** Who holds the phone in the active team, as the record rules (shared/records/rules.ts) take it. */
+  const actor = computed<Actor | null>(() => (user.value && role.value ? { userId: user.value.id, role: role.value } : null))
 
   async function remember(next: { user: User, memberships: Membership[] }): Promise<void> {
     user.value = next.user
@@ -90,5 +93,5 @@ export const useSessionStore = defineStore('session', () => {
     await db.identity.update('current', { activeTeamId: teamId })
   }
 
-  return { status, user, memberships, activeTeamId, activeMembership, role, canManageTeam, ready, signIn, signUp, signOut, switchTeam, reloadProfile: loadProfile }
+  return { status, user, memberships, activeTeamId, activeMembership, role, canManageTeam, actor, ready, signIn, signUp, signOut, switchTeam, reloadProfile: loadProfile }
 })

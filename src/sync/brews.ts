@@ -1,4 +1,6 @@
+import type { EntityDerived } from '../../shared/schemas/records'
 import type { LixiviaDatabase } from '../db/database'
+import type { BrewFields, ReadingFields } from '../forms/brewRecord'
 import { saveRecord } from './outbox'
 
 export interface BrewSave {
@@ -6,11 +8,13 @@ export interface BrewSave {
   userId: string
   /** An existing brew to edit; a new one otherwise. */
   id?: string
-  data: Record<string, unknown>
-  /** Readings typed for it that are not stored yet (without brewId: it is filled in here). */
-  readings: Record<string, unknown>[]
+  /** Every field for a new brew (with brewedAt); the form's fields for an edit. */
+  data: BrewFields & { brewedAt?: string }
+  /** Readings typed for it that are not stored yet (the brew's id is filled in here). */
+  readings: ReadingFields[]
   /** Strength and yield as the phone computed them, shown until the server's own arrive. */
-  derived: { tdsPercent: number, yieldPercent: number }
+  derived: EntityDerived<'brew'>
+  /** Why a teammate's brew is corrected: it goes with the edit and with each reading added to it. */
   reason?: string
 }
 
@@ -20,11 +24,11 @@ export interface BrewSave {
  * @returns the brew's id
  */
 export async function saveBrew(database: LixiviaDatabase, save: BrewSave): Promise<string> {
-  const { teamId, userId } = save
+  const { teamId, userId, reason } = save
   return database.transaction('rw', database.brews, database.readings, database.outbox, async () => {
-    const brewId = await saveRecord(database, 'brew', { teamId, userId, id: save.id, data: save.data, reason: save.reason })
+    const brewId = await saveRecord(database, 'brew', { teamId, userId, id: save.id, data: save.data, reason })
     for (const reading of save.readings)
-      await saveRecord(database, 'reading', { teamId, userId, data: { ...reading, brewId } })
+      await saveRecord(database, 'reading', { teamId, userId, data: { ...reading, brewId }, reason })
     await database.brews.update(brewId, { derived: save.derived })
     return brewId
   })

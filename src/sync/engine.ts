@@ -1,7 +1,11 @@
-import type { Change, MutationResult } from '../../shared/schemas/entities'
-import type { LixiviaDatabase, LocalRecord, OutboxEntry } from '../db/database'
+import type { EntityName } from '../../shared/schemas/entities'
+import type { EntityRecord } from '../../shared/schemas/records'
+import type { Change, MutationResult } from '../../shared/schemas/sync'
+import type { LixiviaDatabase, OutboxEntry } from '../db/database'
 import { v7 as uuidv7 } from 'uuid'
-import { tableOf } from '../db/database'
+import { isEntityName } from '../../shared/records/registry'
+import { recordSchemaOf } from '../../shared/schemas/records'
+import { localCopy } from '../db/database'
 
 export interface SyncTransport {
   push: (body: { clientId: string, mutations: Omit<OutboxEntry, 'seq' | 'createdAt' | 'sentAt' | 'rejected'>[] }) => Promise<{ results: MutationResult[] }>
@@ -28,7 +32,13 @@ export interface TransportError { status: number, message: string }
 class IncompleteAnswer extends Error implements TransportError {
   readonly status = 502
 }
-const isTransportError = (error: unknown): error is TransportError => typeof error === 'object' && error !== null && 'status' in error && typeof (error as TransportError).status === 'number'
+const isTransportError = (error: unknown): error is TransportError => typeof error === 'object' && error !== null && 'status' in error && typeof error.status === 'number'
+
+/** A record as the server sent it, read with this version's schema; undefined when it cannot be read. */
+export function readServerRecord<E extends EntityName>(entity: E, data: unknown): EntityRecord<E> | undefined {
+  const parsed = recordSchemaOf(entity).safeParse(data)
+  return parsed.success ? parsed.data : undefined
+}
 
 export interface SyncEngineOptions {
   database: LixiviaDatabase
@@ -52,6 +62,8 @@ export function createSyncEngine(options: SyncEngineOptions) {
   const schedule = options.schedule ?? wait
   let running: Promise<void> | null = null
   let failures = 0
+  /** Records of this run's pulls that this version could not read. */
+  let unreadable = 0
   let status: SyncStatus = { state: 'idle', pending: 0, attention: 0, lastSyncedAt: null, oldestPendingAt: null, error: null }
 
   async function clientId(): Promise<string> {
@@ -67,15 +79,15 @@ export function createSyncEngine(options: SyncEngineOptions) {
     const queued = await database.outbox.toArray()
     const waiting = queued.filter(entry => !entry.rejected)
     let conflicts = 0
-    for (const name of Object.values(tableOf))
-      conflicts += await database[name].where('sync.state').equals('conflict').count()
+    for (const table of Object.values(database.records))
+      conflicts += await table.where('sync.state').equals('conflict').count()
     status = { ...status, ...change, pending: waiting.length, attention: conflicts + queued.length - waiting.length, oldestPendingAt: waiting[0]?.createdAt ?? null }
     options.onStatus?.(status)
   }
 
-  async function settle(entry: OutboxEntry, result: MutationResult | undefined): Promise<void> {
-    const table = database[tableOf[entry.entity]]
-    const record: LocalRecord | undefined = await table.get(entry.id)
+  async function settle<E extends EntityName>(entity: E, entry: OutboxEntry, result: MutationResult | undefined): Promise<void> {
+    const table = database.records[entity]
+    const record = await table.get(entry.id)
     const later = (await database.outbox.where('id').equals(entry.id).toArray()).filter(other => other.seq !== entry.seq)
     if (!result) {
       // No answer for it: it goes out again with the next push (the server would recognise it).
@@ -93,13 +105,16 @@ export function createSyncEngine(options: SyncEngineOptions) {
       }
       return
     }
-    if (result.status === 'conflict') {
+    const server = result.status === 'conflict' ? readServerRecord(entity, result.server) : undefined
+    if (server) {
       // Both copies stay: the phone's in the record, the server's beside it, until the person picks.
       await database.outbox.bulkDelete([entry.seq!, ...later.filter(o => !o.sentAt && !o.rejected).map(o => o.seq!)])
       if (record)
-        await table.put({ ...record, sync: { state: 'conflict', baseRev: result.rev ?? record.sync.baseRev, server: result.server } })
+        await table.put({ ...record, sync: { state: 'conflict', baseRev: result.rev ?? record.sync.baseRev, server } })
       return
     }
+    if (result.status === 'conflict')
+      result = { ...result, status: 'rejected', reason: 'The server has a newer copy that this version of the app cannot read. Update the app, then send it again.' }
     await database.outbox.update(entry.seq!, { rejected: result, sentAt: null })
     if (record)
       await table.put({ ...record, sync: { ...record.sync, state: 'rejected', reason: result.reason } })
@@ -126,13 +141,26 @@ export function createSyncEngine(options: SyncEngineOptions) {
         mutations: batch.map(({ mutationId, entity, op, id: recordId, teamId, data, baseRev, reason }) => ({ mutationId, entity, op, id: recordId, teamId, data, baseRev, ...(reason ? { reason } : {}) })),
       })
       const byId = new Map(results.map(result => [result.mutationId, result]))
-      await database.transaction('rw', [database.outbox, ...Object.values(tableOf).map(name => database[name])], async () => {
+      await database.transaction('rw', [database.outbox, ...database.recordTables], async () => {
         for (const entry of batch)
-          await settle(entry, byId.get(entry.mutationId))
+          await settle(entry.entity, entry, byId.get(entry.mutationId))
       })
       if (!batch.some(entry => byId.has(entry.mutationId)))
         throw new IncompleteAnswer('The team server answered none of the changes sent.')
     }
+  }
+
+  /** Keeps one pulled record; false when this version cannot read it (it is skipped, not stored). */
+  async function take<E extends EntityName>(entity: E, change: Change): Promise<boolean> {
+    const table = database.records[entity]
+    const local = await table.get(change.id)
+    // A record with changes of its own here is settled by its push, never overwritten.
+    if (local && local.sync.state !== 'clean')
+      return true
+    const record = readServerRecord(entity, change.data)
+    if (record)
+      await table.put(localCopy(record, { state: 'clean', baseRev: record.rev }))
+    return Boolean(record)
   }
 
   async function pullTeam(teamId: string): Promise<void> {
@@ -140,14 +168,10 @@ export function createSyncEngine(options: SyncEngineOptions) {
     let since = Number((await database.meta.get(cursorKey))?.value ?? 0)
     for (let more = true; more;) {
       const page = await transport.pull(teamId, since, pullLimit)
-      await database.transaction('rw', [database.meta, ...Object.values(tableOf).map(name => database[name])], async () => {
+      await database.transaction('rw', [database.meta, ...database.recordTables], async () => {
         for (const change of page.changes) {
-          const table = database[tableOf[change.entity]]
-          const local: LocalRecord | undefined = await table.get(change.id)
-          // A record with changes of its own here is settled by its push, never overwritten.
-          if (local && local.sync.state !== 'clean')
-            continue
-          await table.put({ ...(change.data as LocalRecord), rev: change.rev, sync: { state: 'clean', baseRev: change.rev } })
+          if (isEntityName(change.entity))
+            unreadable += (await take(change.entity, change)) ? 0 : 1
         }
         await database.meta.put({ key: cursorKey, value: page.cursor })
       })
@@ -159,11 +183,12 @@ export function createSyncEngine(options: SyncEngineOptions) {
   async function run(): Promise<void> {
     await report({ state: 'syncing', error: null })
     try {
+      unreadable = 0
       await pushAll()
       for (const teamId of options.teamIds())
         await pullTeam(teamId)
       failures = 0
-      await report({ state: 'idle', lastSyncedAt: new Date().toISOString() })
+      await report({ state: 'idle', lastSyncedAt: new Date().toISOString(), error: unreadable ? `${unreadable} records from the team server need a newer version of the app; update it to see them.` : null })
     }
     catch (error) {
       // Whatever was in flight goes out again next time; the server answers repeats from memory.

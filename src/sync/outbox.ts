@@ -1,13 +1,11 @@
-import type { EntityName } from '../../shared/schemas/entities'
+import type { EntityDataInput, EntityName } from '../../shared/schemas/entities'
 import type { LixiviaDatabase, LocalRecord, OutboxEntry } from '../db/database'
 import { v7 as uuidv7 } from 'uuid'
-import { tableOf } from '../db/database'
-
-const envelope = new Set(['id', 'teamId', 'createdBy', 'createdAt', 'updatedAt', 'rev', 'deletedAt', 'derived', 'history', 'sync', 'signedOffAt'])
+import { envelopeKeys } from '../../shared/schemas/records'
 
 /** The record's own fields, without envelope or sync state. */
-export function fieldsOf(record: Record<string, unknown>): Record<string, unknown> {
-  return Object.fromEntries(Object.entries(record).filter(([key]) => !envelope.has(key)))
+export function fieldsOf(record: object): Record<string, unknown> {
+  return Object.fromEntries(Object.entries(record).filter(([key]) => !envelopeKeys.has(key) && key !== 'sync'))
 }
 
 // IndexedDB cannot store Vue proxies; a JSON copy also drops undefined fields the server would refuse.
@@ -24,6 +22,16 @@ async function unsentFor(database: LixiviaDatabase, id: string): Promise<OutboxE
 
 const joinReasons = (...reasons: (string | undefined)[]): string | undefined => reasons.filter(Boolean).join('; ') || undefined
 
+/** What saving a record needs: the team, the person, the fields (all for a new record, some for an edit). */
+export interface RecordSave<E extends EntityName> {
+  teamId: string
+  userId: string
+  /** An existing record to edit; a new one (with a new UUID v7) otherwise. */
+  id?: string
+  data: Partial<EntityDataInput<E>>
+  reason?: string
+}
+
 /**
  * Saves a record on the phone and queues it for the server in one transaction: both happen or
  * neither does. A new record queues all its fields; an edit queues only what changed, folded into
@@ -31,19 +39,22 @@ const joinReasons = (...reasons: (string | undefined)[]): string | undefined => 
  * A reason goes with the change into the record's history on the server.
  * @returns the record's id
  */
-export async function saveRecord(database: LixiviaDatabase, entity: EntityName, input: { teamId: string, userId: string, id?: string, data: Record<string, unknown>, reason?: string }): Promise<string> {
-  const table = database[tableOf[entity]]
+export async function saveRecord<E extends EntityName>(database: LixiviaDatabase, entity: E, input: RecordSave<E>): Promise<string> {
+  const table = database.records[entity]
   const id = input.id ?? uuidv7()
   const data = plain(fieldsOf(input.data))
   await database.transaction('rw', table, database.outbox, async () => {
     const now = new Date().toISOString()
     const existing = await table.get(id)
     if (!existing) {
-      await table.put({ ...data, id, teamId: input.teamId, createdBy: input.userId, createdAt: now, updatedAt: now, rev: null, deletedAt: null, derived: null, sync: { state: 'pending', baseRev: null } })
+      // The server checks the fields with the entity's schema; until it answers, the phone keeps them as typed.
+      const record = { ...data, id, teamId: input.teamId, createdBy: input.userId, createdAt: now, updatedAt: now, rev: null, deletedAt: null, derived: null, history: [], historyCount: 0, sync: { state: 'pending', baseRev: null } } as LocalRecord<E>
+      await table.put(record)
       await database.outbox.add({ mutationId: uuidv7(), entity, op: 'put', id, teamId: input.teamId, data, baseRev: null, createdAt: now, sentAt: null })
       return
     }
-    const patch = Object.fromEntries(Object.entries(data).filter(([key, value]) => !same(value, existing[key])))
+    const before: Record<string, unknown> = existing
+    const patch = Object.fromEntries(Object.entries(data).filter(([key, value]) => !same(value, before[key])))
     if (Object.keys(patch).length === 0)
       return
     await table.put({ ...existing, ...patch, updatedAt: now, sync: { ...existing.sync, state: 'pending' } })
@@ -65,11 +76,11 @@ export type Undo = () => Promise<void>
  * queued mutations (and, for a brew, its readings that never left the phone either); the undo puts
  * them all back. Any other keeps a tombstone here and queues the delete; its undo is a restore.
  */
-export async function deleteRecord(database: LixiviaDatabase, entity: EntityName, id: string, options: { reason?: string } = {}): Promise<Undo> {
-  const table = database[tableOf[entity]]
+export async function deleteRecord<E extends EntityName>(database: LixiviaDatabase, entity: E, id: string, options: { reason?: string } = {}): Promise<Undo> {
+  const table = database.records[entity]
   let undo: Undo = async () => {}
   await database.transaction('rw', table, database.readings, database.outbox, async () => {
-    const existing: LocalRecord | undefined = await table.get(id)
+    const existing = await table.get(id)
     if (!existing || existing.deletedAt)
       return
     const queued = await database.outbox.where('id').equals(id).toArray()
@@ -99,10 +110,10 @@ export async function deleteRecord(database: LixiviaDatabase, entity: EntityName
  * Brings a deleted record back. A delete no push has carried yet is simply taken out of the
  * outbox; otherwise a restore is queued for the server.
  */
-export async function restoreRecord(database: LixiviaDatabase, entity: EntityName, id: string, options: { reason?: string } = {}): Promise<void> {
-  const table = database[tableOf[entity]]
+export async function restoreRecord<E extends EntityName>(database: LixiviaDatabase, entity: E, id: string, options: { reason?: string } = {}): Promise<void> {
+  const table = database.records[entity]
   await database.transaction('rw', table, database.outbox, async () => {
-    const existing: LocalRecord | undefined = await table.get(id)
+    const existing = await table.get(id)
     if (!existing?.deletedAt)
       return
     const now = new Date().toISOString()

@@ -1,29 +1,28 @@
 import type { EntityName } from '../../shared/schemas/entities'
-import type { LixiviaDatabase, LocalRecord } from '../db/database'
+import type { LixiviaDatabase, OutboxEntry } from '../db/database'
 import { v7 as uuidv7 } from 'uuid'
-import { tableOf } from '../db/database'
+import { localCopy } from '../db/database'
 import { fieldsOf, same } from './outbox'
 
-const tablesOf = (database: LixiviaDatabase) => [database.outbox, database.meta, ...Object.values(tableOf).map(name => database[name])]
+const tablesOf = (database: LixiviaDatabase) => [database.outbox, database.meta, ...database.recordTables]
 
 /** The fields where the phone's copy and the server's differ, for showing a conflict. */
-export function differences(record: LocalRecord): { field: string, mine: unknown, theirs: unknown }[] {
-  const server = record.sync.server ?? {}
+export function differences(record: object & { sync: { server?: object } }): { field: string, mine: unknown, theirs: unknown }[] {
   const mine = fieldsOf(record)
-  const theirs = fieldsOf(server)
+  const theirs = record.sync.server ? fieldsOf(record.sync.server) : {}
   return [...new Set([...Object.keys(mine), ...Object.keys(theirs)])]
     .filter(field => !same(mine[field], theirs[field]))
     .map(field => ({ field, mine: mine[field], theirs: theirs[field] }))
 }
 
 /** Conflict → keep the phone's copy: its differing fields go out again, based on the server's rev. */
-export async function keepMine(database: LixiviaDatabase, entity: EntityName, id: string): Promise<void> {
-  const table = database[tableOf[entity]]
+export async function keepMine<E extends EntityName>(database: LixiviaDatabase, entity: E, id: string): Promise<void> {
+  const table = database.records[entity]
   await database.transaction('rw', tablesOf(database), async () => {
     const record = await table.get(id)
     if (!record || record.sync.state !== 'conflict' || !record.sync.server)
       return
-    const serverRev = Number(record.sync.server.rev)
+    const serverRev = record.sync.server.rev
     const patch = Object.fromEntries(differences(record).map(({ field, mine }) => [field, mine ?? null]))
     await table.put({ ...record, sync: { state: 'pending', baseRev: serverRev } })
     await database.outbox.add({ mutationId: uuidv7(), entity, op: 'put', id, teamId: record.teamId, data: patch, baseRev: serverRev, createdAt: new Date().toISOString(), sentAt: null })
@@ -31,41 +30,43 @@ export async function keepMine(database: LixiviaDatabase, entity: EntityName, id
 }
 
 /** Conflict → take the server's copy; the phone's version of those fields is given up. */
-export async function takeTheirs(database: LixiviaDatabase, entity: EntityName, id: string): Promise<void> {
-  const table = database[tableOf[entity]]
+export async function takeTheirs<E extends EntityName>(database: LixiviaDatabase, entity: E, id: string): Promise<void> {
+  const table = database.records[entity]
   await database.transaction('rw', tablesOf(database), async () => {
     const record = await table.get(id)
     const server = record?.sync.server
     if (!record || record.sync.state !== 'conflict' || !server)
       return
-    const rev = Number(server.rev)
-    // The record's own key and team stay whatever the copy says.
-    await table.put({ ...record, ...server, id: record.id, teamId: record.teamId, rev, sync: { state: 'clean', baseRev: rev } })
+    await table.put(localCopy(server, { state: 'clean', baseRev: server.rev }))
   })
 }
 
-/** Takes a refused change out of the outbox; with its record, unless the record is gone. Call in a transaction. */
+/** Takes a refused change out of the outbox, and says what it was about. Call in a transaction. */
 async function takeRefused(database: LixiviaDatabase, seq: number) {
   const entry = await database.outbox.get(seq)
   if (!entry?.rejected)
     return undefined
-  const table = database[tableOf[entry.entity]]
-  const record = await table.get(entry.id)
   await database.outbox.delete(seq)
-  return record ? { entry, table, record } : undefined
+  return entry
 }
 
 /** Refused → send the record as it now is on the phone (after the person fixed it). */
 export async function resendRejected(database: LixiviaDatabase, seq: number): Promise<void> {
   await database.transaction('rw', tablesOf(database), async () => {
-    const taken = await takeRefused(database, seq)
-    if (!taken)
-      return
-    const { entry, table, record } = taken
+    const entry = await takeRefused(database, seq)
+    if (entry)
+      await resend(database, entry.entity, entry)
+  })
+}
+
+async function resend<E extends EntityName>(database: LixiviaDatabase, entity: E, entry: OutboxEntry): Promise<void> {
+  const table = database.records[entity]
+  const record = await table.get(entry.id)
+  if (record) {
     await table.put({ ...record, sync: { state: 'pending', baseRev: record.sync.baseRev } })
     await database.outbox.add({
       mutationId: uuidv7(),
-      entity: entry.entity,
+      entity,
       op: entry.op,
       id: entry.id,
       teamId: entry.teamId,
@@ -75,7 +76,7 @@ export async function resendRejected(database: LixiviaDatabase, seq: number): Pr
       createdAt: new Date().toISOString(),
       sentAt: null,
     })
-  })
+  }
 }
 
 /**
@@ -84,10 +85,16 @@ export async function resendRejected(database: LixiviaDatabase, seq: number): Pr
  */
 export async function discardRejected(database: LixiviaDatabase, seq: number): Promise<void> {
   await database.transaction('rw', tablesOf(database), async () => {
-    const taken = await takeRefused(database, seq)
-    if (!taken)
-      return
-    const { entry, table, record } = taken
+    const entry = await takeRefused(database, seq)
+    if (entry)
+      await giveUp(database, entry.entity, entry)
+  })
+}
+
+async function giveUp<E extends EntityName>(database: LixiviaDatabase, entity: E, entry: OutboxEntry): Promise<void> {
+  const table = database.records[entity]
+  const record = await table.get(entry.id)
+  if (record) {
     if (record.rev === null) {
       const rest = await database.outbox.where('id').equals(entry.id).toArray()
       await database.outbox.bulkDelete(rest.map(other => other.seq!))
@@ -98,5 +105,5 @@ export async function discardRejected(database: LixiviaDatabase, seq: number): P
     const cursorKey = `cursor:${record.teamId}`
     const cursor = Number((await database.meta.get(cursorKey))?.value ?? 0)
     await database.meta.put({ key: cursorKey, value: Math.min(cursor, Math.max(0, (record.sync.baseRev ?? 1) - 1)) })
-  })
+  }
 }

@@ -1,5 +1,5 @@
 import type { SyncTransport } from './engine'
-import { PullResponseSchema, PushResponseSchema } from '../../shared/schemas/entities'
+import { PullResponseSchema, PushResponseSchema } from '../../shared/schemas/sync'
 import { api } from '../api/client'
 
 /** The engine's transport over the API client: its ApiError carries the status the engine reads. */

@@ -1,7 +1,6 @@
 import type { VueWrapper } from '@vue/test-utils'
 import type { BrewForm } from '../../src/composables/useBrewForm'
 import type { Gauge } from '../../src/composables/useGauges'
-import type { LocalRecord } from '../../src/db/database'
 import { IonicVue } from '@ionic/vue'
 import { flushPromises, mount } from '@vue/test-utils'
 import { linearRegression } from 'simple-statistics'
@@ -15,11 +14,11 @@ import BrewWeights from '../../src/components/brew/BrewWeights.vue'
 import GaugeCalibrationSession from '../../src/components/gauge/GaugeCalibrationSession.vue'
 import { brewFormKey, emptyBrewForm, useBrewForm } from '../../src/composables/useBrewForm'
 import { gaugeOf } from '../../src/composables/useGauges'
+import { localRecord } from './records'
 
-const record = (fields: Record<string, unknown>): LocalRecord => ({ id: 'r', teamId: 't', createdBy: 'u', createdAt: '', updatedAt: '', rev: 1, deletedAt: null, sync: { state: 'clean', baseRev: 1 }, ...fields })
 // An nD refractometer and a line through the ICUMSA table's nD for 0, 5, 10 and 15 °Brix sucrose.
-const harbour = record({ id: 'gauge-1', label: 'Harbour gauge', readingKind: 'nD', resolution: 0.00001, repeatability: 0.00002 })
-const sucroseLine = record({ id: 'cal-1', instrumentId: 'gauge-1', standardUnit: 'brix', active: true, calibratedAt: '2026-12-01T08:00:00.000Z', points: [[0, 1.33299], [5, 1.34026], [10, 1.34782], [15, 1.35568]].map(([concentration, reading]) => ({ concentration, reading })) })
+const harbour = localRecord('instrument', { id: 'gauge-1', label: 'Harbour gauge', readingKind: 'nD', resolution: 0.00001, repeatability: 0.00002 })
+const sucroseLine = localRecord('calibration', { id: 'cal-1', instrumentId: 'gauge-1', standardUnit: 'brix', active: true, calibratedAt: '2026-12-01T08:00:00.000Z', points: [[0, 1.33299], [5, 1.34026], [10, 1.34782], [15, 1.35568]].map(([concentration, reading]) => ({ concentration: concentration!, reading: reading! })) })
 
 /** The form of the harness mounted last, for tests that change what a segment would. */
 let mounted: BrewForm

@@ -1,4 +1,4 @@
-import type { Change, MutationResult } from '../../shared/schemas/entities'
+import type { Change, MutationResult } from '../../shared/schemas/sync'
 import type { SyncTransport } from '../../src/sync/engine'
 
 export const teamId = '0190a8c4-0000-7000-8000-0000000000aa'
@@ -7,6 +7,12 @@ export const userId = '0190a8c4-0000-7000-8000-000000000001'
 /** What a transport throws with no network (status 0, like the app's ApiError). */
 class Offline extends Error {
   readonly status = 0
+}
+
+/** A record as the server sends it: its data and the envelope. */
+function stored(id: string, record: { rev: number, data: Record<string, unknown>, deleted: boolean }): Record<string, unknown> {
+  const at = '2026-12-01T10:00:00.000Z'
+  return { ...record.data, id, teamId, createdBy: userId, createdAt: at, updatedAt: at, rev: record.rev, deletedAt: record.deleted ? at : null, derived: null, history: [], historyCount: 0 }
 }
 
 /** A fake of the server's contract: revs, conflicts on a stale base, refusals, repeat answers. */
@@ -32,7 +38,7 @@ export function fakeServer() {
             result = { mutationId: m.mutationId, status: 'rejected', reason: 'label: refused by the fake' }
           }
           else if (current && (m.baseRev === null || current.rev > m.baseRev)) {
-            result = { mutationId: m.mutationId, status: 'conflict', rev: current.rev, server: { ...current.data, id: m.id, teamId: m.teamId, rev: current.rev } }
+            result = { mutationId: m.mutationId, status: 'conflict', rev: current.rev, server: stored(m.id, current) }
           }
           else {
             rev += 1
@@ -47,7 +53,7 @@ export function fakeServer() {
     async pull(_team, since) {
       if (offline)
         throw new Offline('No network')
-      const changes: Change[] = [...records.entries()].filter(([, r]) => r.rev > since).sort((a, b) => a[1].rev - b[1].rev).map(([id, r]) => ({ entity: 'instrument', id, rev: r.rev, op: r.deleted ? 'delete' : 'put', data: { ...r.data, id, teamId, createdBy: userId, createdAt: 'x', updatedAt: 'x', rev: r.rev, deletedAt: r.deleted ? 'x' : null } }))
+      const changes: Change[] = [...records.entries()].filter(([, r]) => r.rev > since).sort((a, b) => a[1].rev - b[1].rev).map(([id, r]) => ({ entity: 'instrument', id, rev: r.rev, op: r.deleted ? 'delete' : 'put', data: stored(id, r) }))
       return { changes, cursor: changes.at(-1)?.rev ?? since, hasMore: false }
     },
   }

@@ -3,18 +3,16 @@ import Papa from 'papaparse'
 import { describe, expect, it } from 'vitest'
 import { findZonePreset } from '../../shared/brewing'
 import { filterBrews, inZone, ledgerRows, noFilters } from '../../src/composables/useLedger'
+import { localRecord } from './records'
 
 const us = findZonePreset('us-drip')!
-function brew(extra: Partial<LocalRecord>): LocalRecord {
-  return {
+function brew(extra: Partial<LocalRecord<'brew'>>): LocalRecord<'brew'> {
+  return localRecord('brew', {
     id: 'b1',
-    teamId: 't',
-    createdBy: 'u',
-    createdAt: '2026-12-01T08:00:00.000Z',
-    updatedAt: '2026-12-01T08:00:00.000Z',
     rev: 3,
-    deletedAt: null,
     sync: { state: 'clean', baseRev: 3 },
+    context: { kind: 'quick', refId: null },
+    strengthSource: 'direct',
     method: 'percolation',
     brewedAt: '2026-12-01T08:00:00.000Z',
     doseGross: 27.5,
@@ -24,7 +22,7 @@ function brew(extra: Partial<LocalRecord>): LocalRecord {
     notes: 'bloom 40 s, "washed" lot',
     derived: { tdsPercent: 1.35, yieldPercent: 21.6 },
     ...extra,
-  }
+  })
 }
 
 describe('ledgerRows', () => {

@@ -14,7 +14,7 @@ afterEach(async () => {
   await database.delete()
 })
 
-const gauge = (label: string) => ({ label, readingKind: 'tds', resolution: 0.01, repeatability: 0.02 })
+const gauge = (label: string) => ({ label, readingKind: 'tds' as const, resolution: 0.01, repeatability: 0.02 })
 
 async function conflicted() {
   const server = fakeServer()

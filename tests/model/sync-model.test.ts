@@ -6,7 +6,7 @@ import { and, eq, sql } from 'drizzle-orm'
 import fc from 'fast-check'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { instruments, memberships, syncMutations } from '../../server/db/schema'
+import { memberships, records, syncMutations } from '../../server/db/schema'
 import { LixiviaDatabase } from '../../src/db/database'
 import { createSyncEngine } from '../../src/sync/engine'
 import { deleteRecord, saveRecord } from '../../src/sync/outbox'
@@ -114,7 +114,7 @@ describe('sync under dropped, repeated and lost deliveries', () => {
       const server = (await request(app).get('/api/v1/sync/pull').query({ teamId, limit: 1000 }).set(...bearer(people[0]!))).body.changes as { id: string, rev: number, data: Record<string, unknown> }[]
       const onServer = new Map(server.map(change => [change.id, change]))
       // Exactly once: one row per record, one stored answer per delivered mutation.
-      const [rows] = await database.db.select({ n: sql<number>`count(*)` }).from(instruments).where(eq(instruments.teamId, teamId))
+      const [rows] = await database.db.select({ n: sql<number>`count(*)` }).from(records).where(eq(records.teamId, teamId))
       expect(Number(rows!.n)).toBe(onServer.size)
       const answers = await database.db.select({ clientId: syncMutations.clientId, mutationId: syncMutations.mutationId }).from(syncMutations)
       expect(new Set(answers.map(a => `${a.clientId}/${a.mutationId}`)).size).toBe(answers.length)
@@ -147,7 +147,7 @@ describe('sync under dropped, repeated and lost deliveries', () => {
         expect(onServer.has(record.id)).toBe(false)
         expect(record.sync.state).toBe('rejected')
       }
-      const stale = await database.db.select().from(instruments).where(and(eq(instruments.teamId, teamId), eq(instruments.createdBy, people[2]!.id)))
+      const stale = await database.db.select().from(records).where(and(eq(records.teamId, teamId), eq(records.createdBy, people[2]!.id)))
       expect(stale).toEqual([])
       for (const p of phones)
         await p.local.delete()

@@ -5,7 +5,7 @@ import type { TestDatabase } from './helpers'
 import { eq } from 'drizzle-orm'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { brews, memberships } from '../../server/db/schema'
+import { memberships, records } from '../../server/db/schema'
 import { bearer, register } from './auth-helpers'
 import { buildTestApp, createTestDatabase } from './helpers'
 import { pourOver, pull, push, put, reading, remove, restore } from './sync-helpers'
@@ -29,7 +29,7 @@ afterAll(async () => {
 })
 
 async function stored(id: string) {
-  const [row] = await database.db.select().from(brews).where(eq(brews.id, id))
+  const [row] = await database.db.select().from(records).where(eq(records.id, id))
   return row!
 }
 
@@ -121,7 +121,7 @@ describe('delete and restore', () => {
     expect(restored.rev).toBeGreaterThan(deleted.rev)
     const row = await stored(brew.id)
     expect(row.deletedAt).toBeNull()
-    expect(row.history!.map(entry => entry.op)).toEqual(['delete', 'restore'])
+    expect(row.history!.map((entry: { op: string }) => entry.op)).toEqual(['delete', 'restore'])
     const change = (await pull(app, crew.owner, teamId, deleted.rev)).body.changes.find((c: { id: string }) => c.id === brew.id)
     expect(change).toMatchObject({ op: 'put', rev: restored.rev, data: expect.objectContaining({ deletedAt: null }) })
   })

@@ -1,7 +1,7 @@
 import type { TestDatabase } from './helpers'
-import { sql } from 'drizzle-orm'
+import { eq, sql } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { brews, memberships, readings, users } from '../../server/db/schema'
+import { memberships, records, users } from '../../server/db/schema'
 import { demoAccounts, demoPassword, seedDemo } from '../../server/db/seed'
 import { verifyPassword } from '../../server/services/passwords'
 import { createTestDatabase } from './helpers'
@@ -23,13 +23,13 @@ describe('seedDemo', () => {
   })
 
   it('writes the demo records through the sync push, so the server derived every brew\'s result', async () => {
-    const stored = await database.db.select().from(brews)
+    const stored = await database.db.select().from(records).where(eq(records.entity, 'brew'))
     expect(stored).toHaveLength(8)
     for (const brew of stored) {
       expect(brew.derived!.tdsPercent, JSON.stringify(brew.data)).toEqual(expect.any(Number))
       expect(brew.derived!.yieldPercent).toEqual(expect.any(Number))
     }
-    const [row] = await database.db.select({ count: sql<number>`count(*)` }).from(readings)
+    const [row] = await database.db.select({ count: sql<number>`count(*)` }).from(records).where(eq(records.entity, 'reading'))
     expect(Number(row!.count)).toBe(23)
   })
 

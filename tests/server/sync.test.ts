@@ -6,7 +6,7 @@ import { eq, sql } from 'drizzle-orm'
 import request from 'supertest'
 import { v7 as uuidv7 } from 'uuid'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { brews, memberships, teamSyncState } from '../../server/db/schema'
+import { memberships, records, teamSyncState } from '../../server/db/schema'
 import { bearer, register } from './auth-helpers'
 import { buildTestApp, createTestDatabase } from './helpers'
 import { instrument, now, pourOver, pull, push, put, reading, remove } from './sync-helpers'
@@ -81,7 +81,7 @@ describe('POST /api/v1/sync/push', () => {
     // (the handbook's worked pour-over example).
     const brew = put('brew', teamId, pourOver())
     await push(app, crew.member, [brew, put('reading', teamId, reading(brew.id, 1.34)), put('reading', teamId, reading(brew.id, 1.35)), put('reading', teamId, reading(brew.id, 1.36))])
-    const [row] = await database.db.select().from(brews).where(eq(brews.id, brew.id))
+    const [row] = await database.db.select().from(records).where(eq(records.id, brew.id))
     expect(row!.derived!.tdsPercent).toBeCloseTo(1.35, 10)
     expect(row!.derived!.yieldPercent).toBeCloseTo(21.6, 10)
   })
@@ -90,7 +90,7 @@ describe('POST /api/v1/sync/push', () => {
     const brew = put('brew', teamId, pourOver())
     const first = (await push(app, crew.member, [brew, put('reading', teamId, reading(brew.id, 1.3))])).body.results[0]
     const later = await push(app, crew.member, [put('reading', teamId, reading(brew.id, 1.4))])
-    const [row] = await database.db.select().from(brews).where(eq(brews.id, brew.id))
+    const [row] = await database.db.select().from(records).where(eq(records.id, brew.id))
     expect(row!.rev).toBeGreaterThan(first.rev)
     expect(row!.rev).toBeGreaterThan(later.body.results[0].rev)
     expect(row!.derived!.tdsPercent).toBeCloseTo(1.35, 10)
@@ -131,8 +131,11 @@ describe('POST /api/v1/sync/push', () => {
     expect((await push(app, crew.owner, [{ ...edit, mutationId: uuidv7() }])).body.results[0].status).toBe('applied')
   })
 
-  it('answers 404 for a team the user is not in, and 401 without a session', async () => {
-    expect((await push(app, crew.outsider, [put('instrument', teamId, instrument())])).status).toBe(404)
+  it('refuses a mutation for a team the user is not in on its own, and answers 401 without a session', async () => {
+    const foreign = put('instrument', teamId, instrument())
+    const response = await push(app, crew.outsider, [foreign])
+    expect(response.status).toBe(200)
+    expect(response.body.results).toEqual([{ mutationId: foreign.mutationId, status: 'rejected', reason: expect.stringMatching(/^teamId: you are not in this team/) }])
     expect((await request(app).post('/api/v1/sync/push').send({ clientId: uuidv7(), mutations: [] })).status).toBe(401)
   })
 
@@ -151,7 +154,7 @@ describe('POST /api/v1/sync/push', () => {
     await push(app, crew.member, [event, round, entry, brew])
     expect((await request(app).post(`/api/v1/teams/${teamId}/rounds/${round.id}/sign-off`).set(...bearer(crew.member))).status).toBe(403)
     const signed = await request(app).post(`/api/v1/teams/${teamId}/rounds/${round.id}/sign-off`).set(...bearer(crew.lead))
-    expect(signed.body.round.signedOffAt).toBeTruthy()
+    expect(signed.body.round.derived).toEqual({ signedOffAt: expect.any(String), signedOffBy: crew.lead.id })
     const late = put('reading', teamId, reading(brew.id, 1.3))
     expect((await push(app, crew.member, [late])).body.results[0]).toMatchObject({ status: 'rejected', reason: expect.stringContaining('signed off') })
   })

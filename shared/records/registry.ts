@@ -1,0 +1,69 @@
+import type { BrewContext, EntityData, EntityName } from '../schemas/entities'
+import { entityNames } from '../schemas/entities'
+
+/** A pointer from one record to another. */
+export interface RecordRef { entity: EntityName, id: string }
+
+/** What the record layer needs to know of an entity, beyond the shape of its data. */
+export interface EntityDefinition<E extends EntityName> {
+  /** What a person calls one and several of them, for messages. */
+  noun: { one: string, many: string }
+  /** What a person recognises one record by, in a few words. */
+  title: (data: EntityData<E>) => string
+  /** Who may create and change such records: any member, or only a lead or an owner. */
+  writers: 'member' | 'lead'
+  /** Never edited, never deleted once stored (readings). */
+  appendOnly: boolean
+  /**
+   * Whose record decides who may write this one: its own author, or the author of its parent (a
+   * reading is part of its brew: adding one changes the brew's result).
+   */
+  governedBy: 'self' | 'parent'
+  /** A teammate's record is changed only with a reason, which its history keeps. */
+  reasonForTeammate: boolean
+  /** The record this one belongs to (kept in an indexed column on the server). */
+  parent: (data: EntityData<E>) => RecordRef | null
+  /** Every record it points at that must exist in the same team (the parent among them). */
+  links: (data: EntityData<E>) => RecordRef[]
+}
+
+type Definitions = { [E in EntityName]: EntityDefinition<E> }
+
+const ref = (entity: EntityName, id: string | null | undefined): RecordRef | null => (id ? { entity, id } : null)
+const contextRef = (context: BrewContext): RecordRef | null => (context.kind === 'quick' ? null : ref(context.kind, context.refId))
+const plain = { writers: 'member', appendOnly: false, governedBy: 'self', reasonForTeammate: false } as const
+const noun = (one: string, many = `${one}s`) => ({ noun: { one, many } })
+const standalone = { ...plain, parent: () => null, links: () => [] }
+const child = <E extends EntityName>(parent: (data: EntityData<E>) => RecordRef | null) => ({ ...plain, parent, links: (data: EntityData<E>) => [parent(data)].filter(r => r !== null) })
+
+export const entities: Definitions = {
+  instrument: { ...standalone, ...noun('instrument'), title: data => data.label },
+  calibration: { ...child<'calibration'>(data => ref('instrument', data.instrumentId)), ...noun('calibration'), title: data => `Calibration of ${data.calibratedAt.slice(0, 10)}` },
+  brew: {
+    ...plain,
+    ...noun('brew'),
+    title: data => `${data.method.charAt(0).toUpperCase()}${data.method.slice(1)} brew of ${data.brewedAt.slice(0, 10)}`,
+    reasonForTeammate: true,
+    parent: data => contextRef(data.context),
+    links: data => [contextRef(data.context), ref('calibration', data.calibrationId)].filter(r => r !== null),
+  },
+  reading: { ...child<'reading'>(data => ref('brew', data.brewId)), ...noun('reading'), title: data => `Reading ${data.value}`, appendOnly: true, governedBy: 'parent', reasonForTeammate: true },
+  event: { ...standalone, ...noun('event'), title: data => data.name },
+  round: { ...child<'round'>(data => ref('event', data.eventId)), ...noun('round'), title: data => data.name },
+  entry: { ...child<'entry'>(data => ref('round', data.roundId)), ...noun('cup'), title: data => `Cup ${data.code}` },
+  trip: { ...standalone, ...noun('trip'), title: data => data.name },
+  lot: { ...child<'lot'>(data => ref('trip', data.tripId)), ...noun('lot'), title: data => data.farm },
+  recipe: { ...standalone, ...noun('recipe'), title: data => data.name },
+  zone: { ...standalone, ...noun('zone'), title: data => data.name },
+}
+
+/**
+ * An entity's definition, for code that handles any entity. Its functions take that entity's data:
+ * callers pass data that passed the same entity's schema.
+ */
+export function definitionOf<E extends EntityName>(entity: E): EntityDefinition<E> {
+  return entities[entity] as EntityDefinition<E>
+}
+
+const known: ReadonlySet<string> = new Set(entityNames)
+export const isEntityName = (name: string): name is EntityName => known.has(name)

@@ -1,0 +1,89 @@
+import type { Role } from '../schemas/auth'
+import type { EntityData, EntityName } from '../schemas/entities'
+import { definitionOf } from './registry'
+
+// Who may do what (DESIGN.md), in one place: the server enforces these rules on every route and
+// every pushed change; the phone uses them only to hint (hide a button, ask for a reason early).
+
+/** Team settings and people. */
+export const can = {
+  editTeam: (role: Role) => role === 'owner',
+  manageMembers: (role: Role) => role === 'owner',
+  invite: (role: Role, invitedRole: Role) => role === 'owner' || (role === 'lead' && (invitedRole === 'member' || invitedRole === 'viewer')),
+  seeInvitations: (role: Role) => role === 'owner' || role === 'lead',
+  signOff: (role: Role) => role === 'owner' || role === 'lead',
+}
+
+export interface Actor { userId: string, role: Role }
+
+/** A change to a record, as the rules see it. */
+export interface RecordChange {
+  entity: EntityName
+  op: 'create' | 'edit' | 'delete' | 'restore'
+  /**
+   * Who made the record that governs this one: the record itself, or for a reading its brew. Null
+   * for a new record that governs itself.
+   */
+  authorId: string | null
+  reason?: string
+}
+
+/** Whether a lead or owner must give a reason for this change (a teammate's brew). */
+export function reasonRequired(actor: Actor, change: Omit<RecordChange, 'reason'>): boolean {
+  const definition = definitionOf(change.entity)
+  return definition.reasonForTeammate && change.authorId !== null && change.authorId !== actor.userId && (actor.role === 'owner' || actor.role === 'lead')
+}
+
+/** Why the actor may not make this change, or null when they may. */
+export function refusalOf(actor: Actor, change: RecordChange): string | null {
+  const definition = definitionOf(change.entity)
+  if (actor.role === 'viewer')
+    return 'Viewers can read the team\'s records but not change them.'
+  if (definition.writers === 'lead' && actor.role === 'member')
+    return `Only a lead or an owner can set up or change ${definition.noun.many}.`
+  if (definition.appendOnly && change.op !== 'create')
+    return change.op === 'edit' ? 'Readings cannot be changed once recorded; add a new reading instead.' : 'Readings are kept as recorded and cannot be deleted.'
+  const teammate = change.authorId !== null && change.authorId !== actor.userId
+  if (teammate && actor.role === 'member') {
+    return definition.governedBy === 'parent'
+      ? `Members can add ${definition.noun.many} only to their own brews; ask a lead to correct this one.`
+      : 'Members can change only the records they made; ask a lead to correct this one.'
+  }
+  if (reasonRequired(actor, change) && !change.reason?.trim())
+    return `reason: say why you change ${definition.governedBy === 'parent' ? 'a brew' : `a ${definition.noun.one}`} a teammate recorded; the reason stays in its history.`
+  return null
+}
+
+/** Whether the phone should offer to make a record of this entity (the server decides for good). */
+export function mayCreate(actor: Actor | null, entity: EntityName): boolean {
+  return actor !== null && refusalOf(actor, { entity, op: 'create', authorId: null }) === null
+}
+
+/** Whether the phone should offer to change a record at all (the server decides for good). */
+export function mayChange(actor: Actor | null, entity: EntityName, authorId: string): boolean {
+  return actor !== null && refusalOf(actor, { entity, op: 'edit', authorId, reason: 'hint' }) === null
+}
+
+export const frozenMessage = 'This round is signed off: its results can no longer change. Ask the head judge if a correction is needed.'
+
+/** Reads a record's data by entity and id: the server's batch or the phone's store. */
+export type RecordLookup = <E extends EntityName>(entity: E, id: string) => Promise<{ data: EntityData<E> } | undefined>
+
+/**
+ * The round a record sits in: the round itself, an entry's round, a brew's through the entry it
+ * was measured for, a reading's through its brew. A signed-off round freezes all of them, so a
+ * change is checked against the round of the record before and after it (a move out is a change).
+ */
+export async function roundIdOf(entity: EntityName, id: string, data: Record<string, unknown>, lookup: RecordLookup): Promise<string | null> {
+  if (entity === 'round')
+    return id
+  if (entity === 'entry')
+    return typeof data.roundId === 'string' ? data.roundId : null
+  let context = entity === 'brew' ? data.context : undefined
+  if (entity === 'reading' && typeof data.brewId === 'string')
+    context = (await lookup('brew', data.brewId))?.data.context
+  const { kind, refId } = (context ?? {}) as { kind?: string, refId?: string | null }
+  if (kind !== 'entry' || !refId)
+    return null
+  return (await lookup('entry', refId))?.data.roundId ?? null
+}
