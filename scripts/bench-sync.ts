@@ -12,6 +12,7 @@ import { createDatabase } from '../server/db/client'
 import { runMigrations } from '../server/db/migrate'
 import { createLogger } from '../server/logger'
 import { createMailer } from '../server/mail/mailer'
+import { createDiskStorage } from '../server/storage/disk'
 import { startMariaDb } from './lib/mariadb'
 import { freePort } from './lib/system'
 
@@ -33,6 +34,7 @@ try {
     bodyLimit: '4mb',
     jwtSecret: Buffer.alloc(32, 3).toString('base64url'),
     publicUrl: 'http://127.0.0.1/',
+    files: createDiskStorage(path.join(dataDir, 'uploads')),
   })
   const http = app.listen(0, '127.0.0.1')
   await once(http, 'listening')

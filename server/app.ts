@@ -5,6 +5,7 @@ import type { Mailbox } from './mail/mailbox'
 import type { Mailer } from './mail/mailer'
 import type { RateLimits } from './middleware/rate-limits'
 import type { SyncHooks } from './services/sync.service'
+import type { FileStorage } from './storage/files'
 import { existsSync } from 'node:fs'
 import path from 'node:path'
 import cookieParser from 'cookie-parser'
@@ -43,6 +44,8 @@ export interface AppDeps {
   syncHooks?: SyncHooks
   /** The fake SMTP server's mailbox; when given, `/api/v1/dev/mail` lists it (never in production). */
   devMailbox?: Mailbox
+  /** Uploaded files (photos): disk under DATA_DIR/uploads by default (server/storage/). */
+  files: FileStorage
   /** The built client (`dist/`); when given, the app is served beside the API. */
   staticDir?: string
 }

@@ -12,6 +12,7 @@ import { ConfigError, parseEnv } from './env'
 import { createLogger } from './logger'
 import { Mailbox } from './mail/mailbox'
 import { createMailer } from './mail/mailer'
+import { createDiskStorage } from './storage/disk'
 
 export interface RunningServer {
   url: string
@@ -42,6 +43,7 @@ export async function serve(env: Env): Promise<RunningServer> {
     jwtSecret: env.JWT_SECRET,
     publicUrl: env.PUBLIC_URL,
     devMailbox: env.NODE_ENV === 'production' ? undefined : new Mailbox(path.join(env.DATA_DIR, 'mail')),
+    files: createDiskStorage(path.join(env.DATA_DIR, 'uploads')),
     staticDir: existsSync(distDir) ? distDir : undefined,
   })
 

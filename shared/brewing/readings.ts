@@ -54,9 +54,10 @@ function dixonOutlier(values: readonly number[]): ReadingsSummary['outlier'] {
 
 /**
  * The range a reading of each kind must fall in to be a reading of brewed coffee or of a sucrose
- * standard, with an example for the hint. Refractive index: water reads 1.3330 at 20 °C and 85 %
- * sucrose about 1.503 (ICUMSA table); °Brix from 0 to 85 (the same table's span); %TDS up to 30,
- * past the strongest espresso (common practice). A zero check may read a hair below zero.
+ * standard, with an example for the hint. Refractive index: water reads 1.33299 at 20 °C (ICUMSA
+ * table, row 0) and 85 °Brix sucrose about 1.503 (the full ICUMSA table, from memory); °Brix up to
+ * 85, the table's span; %TDS up to 30, past the strongest espresso (common practice). A zero check
+ * may read a hair below zero.
  */
 export const readingRanges = {
   nD: { min: 1.3, max: 1.7, example: '1.3357', step: 0.00001 },

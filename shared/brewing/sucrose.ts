@@ -141,3 +141,21 @@ export function zeroCheck(reading: number, kind: ReadingKind, tolerance = zeroTa
       : 'Zero check failed: clean and dry the lens, let the water reach 20 °C, then zero the instrument and check again.',
   }
 }
+
+/**
+ * How the refractive index of water drifts with temperature near 20 °C: about −0.0001 nD per °C
+ * (IAPWS 1997 formulation at 589 nm: 1.33299 at 20 °C and 1.33250 at 25 °C; values from memory).
+ */
+export const ndPerDegreeNear20 = -0.0001
+
+/**
+ * What a sample at this temperature reads against one at 20 °C, in nD, and whether it matters:
+ * more than 1 °C away, calibrate and measure at one temperature or let the instrument compensate.
+ * @param temperatureC - temperature of the sample, 0 to 60 °C
+ */
+export function temperatureDrift(temperatureC: number): { offsetNd: number, significant: boolean } {
+  requireFinite(temperatureC, 'temperatureC', 'The temperature')
+  if (temperatureC < 0 || temperatureC > 60)
+    throw new BrewingInputError('temperatureC', 'Type the temperature in °C, from 0 to 60.')
+  return { offsetNd: (temperatureC - 20) * ndPerDegreeNear20, significant: Math.abs(temperatureC - 20) > 1 }
+}

@@ -1,5 +1,5 @@
 import { BrewingInputError, requireFinite, requirePositive, requireTdsPercent } from './errors'
-import { roundHalfUp } from './rounding'
+import { formatTds, formatYield, roundHalfUp } from './rounding'
 
 export interface Range { min: number, max: number }
 
@@ -117,4 +117,9 @@ export function zoneVerdict(zone: Zone, measured: { tdsPercent: number, yieldPer
     adjustments.push('Change the extraction first and measure again: it moves the strength too.')
 
   return { strength, extraction, inZone: strength === 'in' && extraction === 'in', headline: headlines[extraction][strength], adjustments, beverageRatio }
+}
+
+/** A zone's ranges as a person reads them, at display precision: "1.15–1.35 %TDS · 18.0–22.0 % EY". */
+export function zoneRangesText(zone: Pick<Zone, 'tdsPercent' | 'yieldPercent'>): string {
+  return `${formatTds(zone.tdsPercent.min)}–${formatTds(zone.tdsPercent.max)} %TDS · ${formatYield(zone.yieldPercent.min)}–${formatYield(zone.yieldPercent.max)} % EY`
 }

@@ -23,6 +23,8 @@ export function setAccessToken(token: string | null): void {
   accessToken = token
 }
 export const hasAccessToken = (): boolean => accessToken !== null
+/** The access token for a request the API client does not make itself (an upload with progress). */
+export const currentAccessToken = (): string | null => accessToken
 /** Called when the refresh cookie no longer gives a session (the user must sign in again). */
 export function whenSessionEnds(handler: () => void): void {
   onSessionEnded = handler

@@ -62,6 +62,29 @@ export interface OutboxEntry {
 
 export interface MetaEntry { key: string, value: unknown }
 
+/**
+ * A file waiting to reach the server (a photo), with its own queue beside the outbox: its bytes
+ * stay here as a blob, it goes with an idempotent PUT by its id, and its record syncs as any other.
+ * queued: waits for signal. sending: on its way (progress 0–1). sent: the server has it (the blob
+ * stays as the phone's copy). failed: refused for good; the reason waits for the person.
+ */
+export interface UploadEntry {
+  /** The file's own id, made on the phone (a UUID v7); the server stores it under this id. */
+  id: string
+  teamId: string
+  /** The PUT's path under /api/v1, and the multipart field that carries the bytes. */
+  path: string
+  field: string
+  blob: Blob
+  fileName: string
+  state: 'queued' | 'sending' | 'sent' | 'failed'
+  attempts: number
+  progress: number
+  error?: string
+  createdAt: string
+  sentAt?: string
+}
+
 /** Each entity's table, typed by its record. */
 export type RecordTables = { [E in EntityName]: Table<LocalRecord<E>, string> }
 
@@ -96,6 +119,7 @@ export class LixiviaDatabase extends Dexie {
   lots!: RecordTables['lot']
   recipes!: RecordTables['recipe']
   zones!: RecordTables['zone']
+  uploads!: Table<UploadEntry, string>
   /** The record tables by entity, for code that handles any entity. */
   readonly records: RecordTables
 
@@ -117,6 +141,11 @@ export class LixiviaDatabase extends Dexie {
       recipes: 'id, teamId, [teamId+updatedAt], sync.state',
     })
     this.version(3).stores({ zones: 'id, teamId, [teamId+updatedAt], sync.state' })
+    // Files get their own queue; records now carry their latest history only and a round's
+    // sign-off in `derived`, so every team is pulled again from the start (local changes stay).
+    this.version(4).stores({ uploads: 'id, teamId, state, createdAt' }).upgrade(async (tx) => {
+      await tx.table('meta').where('key').startsWith('cursor:').delete()
+    })
     this.records = {
       instrument: this.instruments,
       calibration: this.calibrations,

@@ -1,9 +1,12 @@
 import type { SyncEngine, SyncStatus } from '../sync/engine'
+import type { Uploader, UploadStatus } from '../sync/uploads'
 import { defineStore } from 'pinia'
 import { computed, ref } from 'vue'
+import { apiUploads } from '../api/upload'
 import { db } from '../db/database'
 import { createSyncEngine } from '../sync/engine'
 import { apiTransport } from '../sync/transport'
+import { createUploader } from '../sync/uploads'
 import { useSessionStore } from './session'
 
 /** Unsynced changes older than this risk being lost if the browser clears old site data. */
@@ -15,10 +18,14 @@ export const useSyncStore = defineStore('sync', () => {
   const status = ref<SyncStatus>({ state: 'idle', pending: 0, attention: 0, lastSyncedAt: null, oldestPendingAt: null, error: null })
   const persisted = ref<boolean | null>(null)
   const stale = computed(() => status.value.oldestPendingAt !== null && Date.now() - Date.parse(status.value.oldestPendingAt) > staleAfterMs)
+  const uploads = ref<UploadStatus>({ waiting: 0, sending: null, failed: 0 })
   let engine: SyncEngine | null = null
+  let uploader: Uploader | null = null
 
-  function syncNow(): Promise<void> {
-    return engine?.syncNow() ?? Promise.resolve()
+  /** Records first (a file's record names what it shows), then the files waiting to upload. */
+  async function syncNow(): Promise<void> {
+    await engine?.syncNow()
+    await uploader?.uploadNow()
   }
 
   /** Once, after sign-in: sync when signal returns, when the app comes back, and every 30 s. */
@@ -34,6 +41,13 @@ export const useSyncStore = defineStore('sync', () => {
         status.value = next
       },
     })
+    uploader = createUploader({
+      database: db,
+      transport: apiUploads,
+      onStatus: (next) => {
+        uploads.value = next
+      },
+    })
     window.addEventListener('online', () => void syncNow())
     document.addEventListener('visibilitychange', () => {
       if (document.visibilityState === 'visible')
@@ -46,6 +60,7 @@ export const useSyncStore = defineStore('sync', () => {
     // Ask the browser not to evict this site's IndexedDB; it may still say no.
     persisted.value = (await navigator.storage?.persist?.().catch(() => false)) ?? false
     await engine.refreshStatus()
+    await uploader.refreshStatus()
     if (navigator.onLine)
       void syncNow()
   }
@@ -53,7 +68,8 @@ export const useSyncStore = defineStore('sync', () => {
   /** Recounts what waits (after the person settled a conflict or a refusal on this phone). */
   async function refresh(): Promise<void> {
     await engine?.refreshStatus()
+    await uploader?.refreshStatus()
   }
 
-  return { status, persisted, stale, start, syncNow, refresh }
+  return { status, uploads, persisted, stale, start, syncNow, refresh }
 })

@@ -2,6 +2,9 @@ import type { Express } from 'express'
 import type { AppDeps } from '../../server/app'
 import type { Database } from '../../server/db/client'
 import { randomBytes } from 'node:crypto'
+import { mkdtempSync } from 'node:fs'
+import os from 'node:os'
+import path from 'node:path'
 import mysql from 'mysql2/promise'
 import { inject } from 'vitest'
 import { createApp } from '../../server/app'
@@ -9,6 +12,7 @@ import { createDatabase } from '../../server/db/client'
 import { runMigrations } from '../../server/db/migrate'
 import { createLogger } from '../../server/logger'
 import { createMailer } from '../../server/mail/mailer'
+import { createDiskStorage } from '../../server/storage/disk'
 
 export interface TestDatabase extends Database {
   url: string
@@ -54,6 +58,7 @@ export function buildTestApp(database: Database, overrides: Partial<AppDeps> = {
     bodyLimit: '100kb',
     jwtSecret: testJwtSecret,
     publicUrl: 'http://127.0.0.1:8080/',
+    files: createDiskStorage(mkdtempSync(path.join(os.tmpdir(), 'lixivia-test-files-'))),
     // Tests sign in far more often than people do; the rate-limit test sets its own limits.
     rateLimits: { register: { limit: 10_000, windowMs: 60_000 }, login: { limit: 10_000, windowMs: 60_000 }, reset: { limit: 10_000, windowMs: 60_000 } },
     ...overrides,

@@ -25,8 +25,7 @@ describe('roundHalfUp', () => {
     expect(roundHalfUp(-2.5e-9, 9)).toBe(-3e-9)
   })
 
-  it('shows where toFixed would have gone wrong', () => {
-    expect((1.005).toFixed(2)).toBe('1.00')
+  it('formats 1.005 %TDS as 1.01, where toFixed gives 1.00', () => {
     expect(formatTds(1.005)).toBe('1.01')
   })
 })

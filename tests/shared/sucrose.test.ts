@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { brixToRefractiveIndex, icumsaSucroseNd20, refractiveIndexToBrix, tdsFromBrix, waterNd20, zeroCheck } from '../../shared/brewing'
+import { brixToRefractiveIndex, icumsaSucroseNd20, refractiveIndexToBrix, tdsFromBrix, temperatureDrift, waterNd20, zeroCheck } from '../../shared/brewing'
 import { readCsv } from './fixtures'
 
 // ICUMSA 1974 sucrose refractive index table at 20 °C (tests/fixtures/icumsa-sucrose-nd20.csv).
@@ -76,5 +76,24 @@ describe('zeroCheck', () => {
 
   it('takes a tolerance of the user\'s own', () => {
     expect(zeroCheck(0.05, 'tds', 0.06).passed).toBe(true)
+  })
+})
+
+describe('temperatureDrift', () => {
+  it('puts water at 25 °C about 0.0005 nD below 20 °C', () => {
+    // IAPWS 1997 release on the refractive index of water: about −1.0 × 10⁻⁴ per °C near 20–25 °C;
+    // ISO 1743's water row averages −1.05 × 10⁻⁴ over 20–30 °C.
+    expect(temperatureDrift(25).offsetNd).toBeCloseTo(-0.0005, 6)
+    // Within 10 % of the ISO average.
+    expect(Math.abs(temperatureDrift(30).offsetNd / 10 + 1.05e-4)).toBeLessThanOrEqual(0.105e-4)
+  })
+
+  it('matters only more than 1 °C from 20 °C', () => {
+    expect(temperatureDrift(20.8).significant).toBe(false)
+    expect(temperatureDrift(18.5)).toMatchObject({ significant: true, offsetNd: expect.closeTo(0.00015, 8) })
+  })
+
+  it('refuses a temperature no sample has, naming the field', () => {
+    expect(() => temperatureDrift(80)).toThrow(expect.objectContaining({ field: 'temperatureC' }))
   })
 })
