@@ -89,8 +89,8 @@ async function step(p: Phone, step: Command, teamId: string): Promise<void> {
       await saveRecord(p.local, 'reading', { teamId, userId, data: { brewId: brew.id, value: step.value, kind: 'tds', takenAt: now() }, reason: brew.createdBy === userId ? undefined : 'read again' })
   }
   else if (step.kind === 'delete') {
-    const rows: { id: string, createdBy: string, deletedAt: string | null }[] = step.brew ? await p.local.brews.toArray() : await p.local.instruments.toArray()
-    const row = alive(rows)[step.pick % Math.max(1, rows.length)]
+    const rows = alive<{ id: string, createdBy: string, deletedAt: string | null }>(step.brew ? await p.local.brews.toArray() : await p.local.instruments.toArray())
+    const row = rows[step.pick % Math.max(1, rows.length)]
     if (row)
       await deleteRecord(p.local, step.brew ? 'brew' : 'instrument', row.id, { reason: row.createdBy === userId ? undefined : 'duplicate' })
   }
