@@ -55,6 +55,7 @@ export const entities: Definitions = {
   lot: { ...child<'lot'>(data => ref('trip', data.tripId)), ...noun('lot'), title: data => data.farm },
   recipe: { ...standalone, ...noun('recipe'), title: data => data.name },
   zone: { ...standalone, ...noun('zone'), title: data => data.name },
+  zoneDefault: { ...standalone, ...noun('default zone'), title: data => `Default ${data.family} zone`, writers: 'lead', appendOnly: true },
 }
 
 /**

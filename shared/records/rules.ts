@@ -41,8 +41,10 @@ export function refusalOf(actor: Actor, change: RecordChange): string | null {
     return 'Viewers can read the team\'s records but not change them.'
   if (definition.writers === 'lead' && actor.role === 'member')
     return `Only a lead or an owner can set up or change ${definition.noun.many}.`
-  if (definition.appendOnly && change.op !== 'create')
-    return change.op === 'edit' ? 'Readings cannot be changed once recorded; add a new reading instead.' : 'Readings are kept as recorded and cannot be deleted.'
+  if (definition.appendOnly && change.op !== 'create') {
+    const noun = definition.noun.many.charAt(0).toUpperCase() + definition.noun.many.slice(1)
+    return change.op === 'edit' ? `${noun} cannot be changed once recorded; add a new one instead.` : `${noun} are kept as recorded and cannot be deleted.`
+  }
   const teammate = change.authorId !== null && change.authorId !== actor.userId
   if (teammate && actor.role === 'member') {
     return definition.governedBy === 'parent'

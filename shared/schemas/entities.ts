@@ -129,6 +129,15 @@ export const ZoneDataSchema = z.strictObject({
   notes: freeText(2000).default(''),
 })
 
+/**
+ * The team's default zone for a family of brews, for brews whose context names none. A lead or an
+ * owner sets it; each choice is a record of its own, and the latest one stands.
+ */
+export const ZoneDefaultDataSchema = z.strictObject({
+  family: z.enum(['filter', 'espresso']),
+  zoneId: nameText(64),
+})
+
 export const entityDataSchemas = {
   instrument: InstrumentDataSchema,
   calibration: CalibrationDataSchema,
@@ -141,6 +150,7 @@ export const entityDataSchemas = {
   lot: LotDataSchema,
   recipe: RecipeDataSchema,
   zone: ZoneDataSchema,
+  zoneDefault: ZoneDefaultDataSchema,
 } as const
 
 export type EntityName = keyof typeof entityDataSchemas

@@ -69,6 +69,7 @@ export const derivedSchemas = {
   lot: z.null(),
   recipe: z.null(),
   zone: z.null(),
+  zoneDefault: z.null(),
 } as const satisfies Record<EntityName, z.ZodType>
 
 export type EntityDerived<E extends EntityName> = z.infer<(typeof derivedSchemas)[E]>

@@ -1,6 +1,7 @@
 import type { InjectionKey, Ref } from 'vue'
 import type { BrewInput, BrewMethod, BrewResult, BrewUncertainty, ReadingKind, ReadingsSummary, Zone, ZoneVerdict } from '../../shared/brewing'
 import type { BrewContext } from '../../shared/schemas/entities'
+import type { JudgedZone } from './brewContexts'
 import type { Gauge } from './useGauges'
 import { computed, inject, reactive, watch } from 'vue'
 import { brewRatio, brewUncertainty, computeBrew, defaultRetainedRatio, summarizeReadings, zoneVerdict } from '../../shared/brewing'
@@ -95,7 +96,9 @@ export interface BrewOutcome {
   verdict: ZoneVerdict | null
   /** Water per gram of coffee, when the water was given. */
   ratio: number | null
+  /** The zone the verdict is against (the context's, else the team's default), and why. */
   zone: Zone
+  zoneSource: string
   /** Fields whose text is not a number, by form field name. */
   invalid: string[]
 }
@@ -103,7 +106,7 @@ export interface BrewOutcome {
 const numberFields = ['brixFactor', 'dose', 'doseGross', 'doseTare', 'beverageMass', 'beverageGross', 'beverageTare', 'waterMass', 'retainedRatio', 'waterTemperature'] as const
 
 /** The measure form and its live result, for the Bench and for editing a stored brew. */
-export function useBrewForm(initial: BrewForm, options: { gauges: Ref<ReadonlyMap<string, Gauge>>, zoneFor: (method: BrewMethod) => Zone }) {
+export function useBrewForm(initial: BrewForm, options: { gauges: Ref<ReadonlyMap<string, Gauge>>, judge: (context: BrewContext, method: BrewMethod) => JudgedZone }) {
   const form = reactive<BrewForm>(structuredClone(initial))
   /** The chosen refractometer with its active calibration (null: none, or not on this phone). */
   const gauge = computed(() => (form.instrumentId ? options.gauges.value.get(form.instrumentId) ?? null : null))
@@ -141,7 +144,7 @@ export function useBrewForm(initial: BrewForm, options: { gauges: Ref<ReadonlyMa
       invalid.push('waterTemperature')
     const summary = included.length ? summarizeReadings(input.readings) : null
     const outlier = summary?.outlier ? { ...summary.outlier, index: included[summary.outlier.index]!.index } : null
-    const zone = options.zoneFor(form.method)
+    const { zone, source: zoneSource } = options.judge(form.context, form.method)
     const water = read.waterMass.value
     return {
       input,
@@ -152,6 +155,7 @@ export function useBrewForm(initial: BrewForm, options: { gauges: Ref<ReadonlyMa
       verdict: result.tdsPercent !== null && result.yieldPercent !== null && result.tdsPercent > 0 && result.yieldPercent > 0 ? zoneVerdict(zone, { tdsPercent: result.tdsPercent, yieldPercent: result.yieldPercent }) : null,
       ratio: result.dose !== null && water !== null && water > 0 ? brewRatio(result.dose, water) : null,
       zone,
+      zoneSource,
       invalid,
     }
   })

@@ -12,8 +12,8 @@ export type MethodFilter = 'all' | 'percolation' | 'immersion' | 'espresso'
 export type PeriodFilter = 'today' | 'week' | 'all' | 'dates'
 export type ContextFilter = 'all' | ContextKind
 export type ZoneFilter = 'all' | 'in' | 'out'
-/** The zone a brew of a method is judged against (useTeamZones). */
-export type ZoneFor = (method: string) => Zone
+/** The zone a brew's verdict belongs to (useBrewContexts). */
+export type ZoneFor = (brew: LocalRecord<'brew'>) => Zone
 
 export interface LedgerFilters {
   method: MethodFilter
@@ -69,7 +69,7 @@ export function filterBrews(brews: Brew[], f: LedgerFilters, zoneFor: ZoneFor, n
       return false
     if (f.context !== 'all' && brew.context.kind !== f.context)
       return false
-    if (f.zone !== 'all' && inZone(brew, zoneFor(brew.method)) !== (f.zone === 'in'))
+    if (f.zone !== 'all' && inZone(brew, zoneFor(brew)) !== (f.zone === 'in'))
       return false
     return !words || `${brew.notes} ${brew.grindSetting}`.toLowerCase().includes(words)
   })
@@ -86,19 +86,19 @@ export function useLedger(teamId: Ref<string | null>, zoneFor: ZoneFor) {
 const contextWords: Record<ContextKind, string> = { quick: 'quick brew', entry: 'event entry', lot: 'lot', recipe: 'recipe' }
 
 /** The rows of the CSV export, with units in the headers. */
-export function ledgerRows(brews: Brew[], zoneFor: ZoneFor, nameOf: (userId: string) => string = () => ''): Record<string, string | number>[] {
+export function ledgerRows(brews: Brew[], zoneFor: ZoneFor, nameOf: (userId: string) => string = () => '', labelOf: (brew: Brew) => string = brew => contextWords[brew.context.kind]): Record<string, string | number>[] {
   const number = (value: number | null): number | string => value ?? ''
   // Net masses as the core computes them (gross minus tare where weighed so), to 2 decimals.
   const masses = (brew: Brew) => computeBrew(brewInputOf(brew, [], null))
   const grams = (value: number | null): number | string => (value === null ? '' : roundHalfUp(value, 2))
   return brews.map((brew) => {
     const { dose, beverageMass, beverageEstimated } = masses(brew)
-    const zone = zoneFor(brew.method)
+    const zone = zoneFor(brew)
     const inside = inZone(brew, zone)
     return {
       'brewed at (ISO 8601)': brew.brewedAt,
       'method': brew.method,
-      'context': contextWords[brew.context.kind],
+      'context': labelOf(brew),
       'TDS (%)': tdsOf(brew) === null ? '' : formatTds(tdsOf(brew)!),
       'extraction yield (%)': eyOf(brew) === null ? '' : formatYield(eyOf(brew)!),
       'dose (g)': grams(dose),

@@ -100,6 +100,7 @@ export const tableOf = {
   lot: 'lots',
   recipe: 'recipes',
   zone: 'zones',
+  zoneDefault: 'zoneDefaults',
 } as const satisfies Record<EntityName, string>
 export type RecordTableName = (typeof tableOf)[EntityName]
 
@@ -119,6 +120,7 @@ export class LixiviaDatabase extends Dexie {
   lots!: RecordTables['lot']
   recipes!: RecordTables['recipe']
   zones!: RecordTables['zone']
+  zoneDefaults!: RecordTables['zoneDefault']
   uploads!: Table<UploadEntry, string>
   /** The record tables by entity, for code that handles any entity. */
   readonly records: RecordTables
@@ -141,9 +143,9 @@ export class LixiviaDatabase extends Dexie {
       recipes: 'id, teamId, [teamId+updatedAt], sync.state',
     })
     this.version(3).stores({ zones: 'id, teamId, [teamId+updatedAt], sync.state' })
-    // Files get their own queue; records now carry their latest history only and a round's
+    // Files get their own queue, team default zones their table; records now carry their latest history only and a round's
     // sign-off in `derived`, so every team is pulled again from the start (local changes stay).
-    this.version(4).stores({ uploads: 'id, teamId, state, createdAt' }).upgrade(async (tx) => {
+    this.version(4).stores({ uploads: 'id, teamId, state, createdAt', zoneDefaults: 'id, teamId, sync.state' }).upgrade(async (tx) => {
       await tx.table('meta').where('key').startsWith('cursor:').delete()
     })
     this.records = {
@@ -158,6 +160,7 @@ export class LixiviaDatabase extends Dexie {
       lot: this.lots,
       recipe: this.recipes,
       zone: this.zones,
+      zoneDefault: this.zoneDefaults,
     }
   }
 

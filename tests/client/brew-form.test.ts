@@ -27,7 +27,7 @@ let mounted: BrewForm
 function harness(gauge: Gauge | null = null, initial: Partial<BrewForm> = {}) {
   return defineComponent({
     setup() {
-      const { form, outcome } = useBrewForm({ ...emptyBrewForm(), ...initial, instrumentId: gauge?.instrument.id ?? null }, { gauges: ref(new Map(gauge ? [[gauge.instrument.id, gauge]] : [])), zoneFor: () => findZonePreset('us-drip')! })
+      const { form, outcome } = useBrewForm({ ...emptyBrewForm(), ...initial, instrumentId: gauge?.instrument.id ?? null }, { gauges: ref(new Map(gauge ? [[gauge.instrument.id, gauge]] : [])), judge: () => ({ zone: findZonePreset('us-drip')!, source: 'the team\'s default' }) })
       provide(brewFormKey, form)
       mounted = form
       return () => h('div', [

@@ -15,7 +15,7 @@ const gauges = ref(new Map([[pen.id, gaugeOf(pen, null)]]))
 
 /** A form as a person fills it, saved as the Bench saves it, read by the server's schema, and opened again to edit. */
 function roundTrip(filled: Partial<BrewForm>) {
-  const { form, outcome, gauge } = useBrewForm({ ...emptyBrewForm(), ...filled }, { gauges, zoneFor: () => findZonePreset('us-drip')! })
+  const { form, outcome, gauge } = useBrewForm({ ...emptyBrewForm(), ...filled }, { gauges, judge: () => ({ zone: findZonePreset('us-drip')!, source: 'the team\'s default' }) })
   const brewedAt = '2026-12-02T07:30:00.000Z'
   // The server parses what the phone sends with the entity's schema; a stored brew is that.
   const stored = entityDataSchemas.brew.parse({ ...brewDataOf(form, outcome.value, gauge.value), brewedAt })

@@ -48,7 +48,7 @@ describe('inZone', () => {
 
 describe('filterBrews', () => {
   const espresso = findZonePreset('espresso')!
-  const zoneFor = (method: string) => (method === 'espresso' ? espresso : us)
+  const zoneFor = (brew: LocalRecord<'brew'>) => (brew.method === 'espresso' ? espresso : us)
   const brews = [
     brew({ id: 'quick', brewedAt: '2026-12-01T08:00:00.000Z' }),
     brew({ id: 'lot', context: { kind: 'lot', refId: 'l1' }, method: 'immersion', brewedAt: '2026-11-20T08:00:00.000Z', grindSetting: 'cupping' }),

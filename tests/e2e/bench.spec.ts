@@ -101,7 +101,7 @@ describe('measuring a brew on the Bench', () => {
     const chart = onScreen(page, 'control-chart')
     await expect.poll(() => chart.locator('canvas').getAttribute('aria-label')).toMatch(/^Brewing control chart: \d+ brews against the US drip standard$/)
     await chart.locator('canvas').waitFor()
-    expect(await page.getByText('1.15–1.35 %TDS, 18–22 % extraction').count()).toBe(1)
+    expect(await page.getByText('1.15–1.35 %TDS · 18.0–22.0 % EY').count()).toBe(1)
     await screenshot(page, 'zone-chart')
   })
 

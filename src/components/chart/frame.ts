@@ -1,6 +1,7 @@
 import type { Zone } from '../../../shared/brewing'
 
-export interface ChartPoint { id: string, tdsPercent: number, yieldPercent: number, current?: boolean }
+/** A brew on the chart; `label` names it (its context and date) in the tooltip. */
+export interface ChartPoint { id: string, tdsPercent: number, yieldPercent: number, current?: boolean, label?: string }
 
 export interface ChartFrame {
   x: { min: number, max: number }
