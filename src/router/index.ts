@@ -3,7 +3,7 @@ import { createRouter, createWebHistory } from '@ionic/vue-router'
 import ShellTabsPage from '../views/ShellTabsPage.vue'
 import { installGuards } from './guards'
 
-/** The five tabs and the account screens; every page but the tab frame loads when first opened. */
+/** The six tabs and the account screens; every page but the tab frame loads when first opened. */
 export const routes: RouteRecordRaw[] = [
   { path: '/', redirect: '/bench' },
   {
@@ -11,6 +11,7 @@ export const routes: RouteRecordRaw[] = [
     component: ShellTabsPage,
     children: [
       { path: 'bench', name: 'bench', component: () => import('../views/BenchPage.vue') },
+      { path: 'field', name: 'field', component: () => import('../views/FieldPage.vue') },
       { path: 'zone', name: 'zone', component: () => import('../views/ZonePage.vue') },
       { path: 'ledger', name: 'ledger', component: () => import('../views/LedgerPage.vue') },
       { path: 'gauges', name: 'gauges', component: () => import('../views/GaugesPage.vue') },

@@ -28,14 +28,14 @@ describe('the app shell', () => {
     await screenshot(page, 'sign-in')
   })
 
-  it('opens on the Bench tab with five tabs and the network chip', async () => {
+  it('opens on the Bench tab with six tabs and the network chip', async () => {
     await signIn(page, demoOwner)
     await page.goto('/')
     await waitForTitle(page, 'Bench')
     expect(new URL(page.url()).pathname).toBe('/bench')
-    await page.locator('ion-tab-button').nth(4).waitFor()
+    await page.locator('ion-tab-button').nth(5).waitFor()
     const tabs = await page.locator('ion-tab-button').allInnerTexts()
-    expect(tabs.map(tab => tab.trim())).toEqual(['Bench', 'Zone', 'Ledger', 'Gauges', 'Crew'])
+    expect(tabs.map(tab => tab.trim())).toEqual(['Bench', 'Field', 'Zone', 'Ledger', 'Gauges', 'Crew'])
     await expect.poll(() => page.locator('[data-test="network-chip"]').first().innerText()).toContain('Online')
     // Nunito ships with the app; the browser must have loaded it from us.
     await expect.poll(() => page.evaluate(() => document.fonts.check('16px Nunito'))).toBe(true)
@@ -43,7 +43,7 @@ describe('the app shell', () => {
   })
 
   it('moves between tabs', async () => {
-    for (const [tab, title] of [['zone', 'Zone'], ['ledger', 'Ledger'], ['gauges', 'Gauges'], ['crew', 'Crew']] as const) {
+    for (const [tab, title] of [['field', 'Field'], ['zone', 'Zone'], ['ledger', 'Ledger'], ['gauges', 'Gauges'], ['crew', 'Crew']] as const) {
       await page.locator(`#tab-button-${tab}`).click()
       await waitForTitle(page, title)
       expect(new URL(page.url()).pathname).toBe(`/${tab}`)
