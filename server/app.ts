@@ -14,6 +14,7 @@ import { pinoHttp } from 'pino-http'
 import { createAccessTokens } from './auth/tokens'
 import { requireAuth } from './middleware/auth'
 import { apiNotFound, errorHandler } from './middleware/errorHandler'
+import { noStore } from './middleware/no-store'
 import { defaultRateLimits, limiter } from './middleware/rate-limits'
 import { authRoutes } from './routes/auth.routes'
 import { devMailRoutes } from './routes/dev-mail.routes'
@@ -104,6 +105,7 @@ export function createApp(deps: AppDeps): Express {
   const sync = createSyncService({ db, teams, hooks: deps.syncHooks })
 
   const api = express.Router()
+  api.use(noStore)
   api.use(healthRoutes({ pool: deps.database.pool, version: deps.version }))
   if (deps.devMailbox)
     api.use(devMailRoutes(deps.devMailbox))

@@ -16,7 +16,7 @@ function cookieOptions(req: Request): CookieOptions {
 
 function sendSession(req: Request, res: Response, session: Session, status: number): void {
   res.cookie(refreshCookieName, session.refreshToken, { ...cookieOptions(req), maxAge: refreshTtlMs })
-  res.status(status).set('Cache-Control', 'no-store').json({ user: session.user, accessToken: session.accessToken })
+  res.status(status).json({ user: session.user, accessToken: session.accessToken })
 }
 
 export interface AuthLimits { register: RequestHandler, login: RequestHandler, reset: RequestHandler }
