@@ -63,6 +63,9 @@ describe('pOST /api/v1/auth/register', () => {
     [{ email: 'not-an-address' }, 'email'],
     [{ name: 'x'.repeat(121) }, 'name'],
     [{ name: 42 }, 'name'],
+    [{ name: 'Noor \uD800' }, 'name'],
+    [{ password: 'long enough \uDC00 password' }, 'password'],
+    [{ password: 'long enough \u0000 password' }, 'password'],
     [{ role: 'owner' }, 'role'],
   ])('answers 400 naming the field for %o', async (change, field) => {
     const body = { email: uniqueEmail('bad'), password: 'long enough password', name: 'Bad Input', ...change }
