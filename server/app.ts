@@ -40,7 +40,7 @@ export interface AppDeps {
   rateLimits?: Partial<RateLimits>
   /** Test seams inside the sync transaction. */
   syncHooks?: SyncHooks
-  /** The fake SMTP server's mailbox; when given, `/api/v1/dev/mail` lists it (never in production). */
+  /** The fake SMTP server's mailbox; when given, `/api/v1/dev/mail` lists it (see servesDevMail). */
   devMailbox?: Mailbox
   /** The built client (`dist/`); when given, the app is served beside the API. */
   staticDir?: string

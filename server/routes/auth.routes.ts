@@ -2,16 +2,15 @@ import type { CookieOptions, Request, RequestHandler, Response } from 'express'
 import type { AuthService, Session } from '../services/auth.service'
 import { Router } from 'express'
 import { LoginBodySchema, RegisterBodySchema, ResetConfirmBodySchema, ResetRequestBodySchema } from '../../shared/schemas/auth'
+import { isLoopback } from '../loopback'
 import { refreshTtlMs } from '../services/auth.service'
 
 export const refreshCookieName = 'lixivia_refresh'
 export const refreshCookiePath = '/api/v1/auth'
 
-const loopbackHosts = new Set(['127.0.0.1', 'localhost', '::1', '[::1]'])
-
 /** httpOnly, SameSite=Strict, only sent to the auth routes; Secure everywhere but loopback. */
 function cookieOptions(req: Request): CookieOptions {
-  return { httpOnly: true, sameSite: 'strict', path: refreshCookiePath, secure: req.secure || !loopbackHosts.has(req.hostname) }
+  return { httpOnly: true, sameSite: 'strict', path: refreshCookiePath, secure: req.secure || !isLoopback(req.hostname) }
 }
 
 function sendSession(req: Request, res: Response, session: Session, status: number): void {

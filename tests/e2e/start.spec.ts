@@ -19,6 +19,7 @@ describe('npm start', () => {
     const settings = { PORT: await freePort(), DB_PORT: await freePort(), SMTP_PORT: await freePort(), DATA_DIR: dataDir }
     const first = await startStack(settings)
     expect(first.output()).toContain('Demo data written')
+    expect(first.output()).toContain(`listed at ${first.url}api/v1/dev/mail`)
     expect((await fetch(new URL('api/v1/health', first.url))).status).toBe(200)
     const writer = await mysql.createConnection({ uri: await databaseUrl(settings.DB_PORT) })
     await writer.query('INSERT INTO teams (id, name) VALUES (?, ?)', ['0190a8c4-0000-7000-8000-000000000001', 'Saltmarsh Night Market'])
