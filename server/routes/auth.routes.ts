@@ -45,9 +45,11 @@ export function authRoutes(auth: AuthService, limits: AuthLimits): Router {
     res.clearCookie(refreshCookieName, cookieOptions(req))
     res.status(204).end()
   })
-  router.post('/auth/password-reset/request', limits.reset, async (req, res) => {
-    await auth.requestReset(ResetRequestBodySchema.parse(req.body).email, ctx(req))
+  router.post('/auth/password-reset/request', limits.reset, (req, res) => {
+    const { email } = ResetRequestBodySchema.parse(req.body)
     res.status(202).json({ status: 'sent-if-known' })
+    // The look-up, the link and the mail come after the answer, which is the same for every address.
+    auth.requestReset(email, ctx(req)).catch((error: unknown) => req.log.error({ err: error }, 'password reset request failed'))
   })
   router.post('/auth/password-reset/confirm', limits.reset, async (req, res) => {
     await auth.confirmReset(ResetConfirmBodySchema.parse(req.body), ctx(req))
