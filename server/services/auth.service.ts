@@ -11,6 +11,12 @@ import { audit } from './audit.service'
 import { hashPassword, verifyPassword } from './passwords'
 
 export const refreshTtlMs = 30 * 24 * 60 * 60 * 1000
+/**
+ * How long a used refresh token still works. Two tabs refreshing at once send the same cookie, and
+ * a phone that loses the answer in a tunnel sends it again: neither is theft, so within this window
+ * the token yields a new one of the same family. Later, it counts as reuse and ends the family.
+ */
+export const refreshGraceMs = 30_000
 const resetTtlMs = 60 * 60 * 1000
 
 export interface Session {
@@ -83,9 +89,11 @@ export function createAuthService(deps: { db: Db, tokens: AccessTokens, mailer: 
         const [token] = await tx.select().from(refreshTokens).where(eq(refreshTokens.tokenHash, hashToken(presented))).for('update')
         if (!token || token.revokedAt || token.expiresAt.getTime() <= Date.now())
           return { kind: 'ended' as const }
-        if (token.usedAt)
+        if (token.usedAt && Date.now() - token.usedAt.getTime() > refreshGraceMs)
           return { kind: 'reused' as const, token }
-        await tx.update(refreshTokens).set({ usedAt: new Date() }).where(eq(refreshTokens.id, token.id))
+        // Within the grace a used token gets another token of its family: see refreshGraceMs.
+        if (!token.usedAt)
+          await tx.update(refreshTokens).set({ usedAt: new Date() }).where(eq(refreshTokens.id, token.id))
         const [user] = await tx.select({ id: users.id, email: users.email, name: users.name }).from(users).where(eq(users.id, token.userId))
         return user ? { kind: 'rotated' as const, token, user } : { kind: 'ended' as const }
       })
