@@ -111,7 +111,7 @@ export function createApp(deps: AppDeps): Express {
     api.use(devMailRoutes(deps.devMailbox))
   api.use(authRoutes(auth, { register: limiter(limits.register), login: limiter(limits.login), reset: limiter(limits.reset) }))
   // Signed-in routes; scoped by path so that an unknown route still answers 404, not 401.
-  api.use(['/me', '/teams', '/invitations', '/sync'], requireAuth(tokens))
+  api.use(['/me', '/teams', '/invitations', '/sync'], requireAuth(tokens, auth))
   api.use(teamRoutes(teams, invitations))
   api.use(syncRoutes(sync))
   app.use('/api/v1', api)

@@ -81,6 +81,13 @@ export function createAuthService(deps: { db: Db, tokens: AccessTokens, mailer: 
       return startSession({ id: row.id, email: row.email, name: row.name })
     },
 
+    /** Throws 401 when the account a valid access token names has been deleted since it was issued. */
+    async assertAccount(userId: string): Promise<void> {
+      const [row] = await db.select({ id: users.id }).from(users).where(eq(users.id, userId)).limit(1)
+      if (!row)
+        throw new HttpError(401, 'unauthenticated', 'This account no longer exists. Sign in again.')
+    },
+
     /** Rotates: the presented token is used up and the next one of its family is issued. */
     async refresh(presented: string | undefined, ctx: Context): Promise<Session> {
       if (!presented)
