@@ -1,12 +1,16 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express'
 import type { ApiErrorBody } from '../../shared/schemas/api-error'
 import { ZodError } from 'zod'
+import { isDatabaseUnavailable } from '../db/unavailable'
 import { HttpError } from '../http-error'
 
 /** Errors that body-parser and the router raise carry an HTTP status, and body-parser's a `type`. */
 interface ClientError { type?: unknown, status?: unknown, expose?: unknown, code?: unknown, message?: unknown }
 
 interface Answer { status: number, body: ApiErrorBody['error'] }
+
+/** A paused or restarting database is usually back within this; phones retry after it. */
+const retryAfterSeconds = 5
 
 function describeZod(error: ZodError): ApiErrorBody['error'] {
   const issues = error.issues.map(issue => ({ path: issue.path.map(String).join('.'), message: issue.message }))
@@ -52,6 +56,8 @@ export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, _next)
     answer = { status: 400, body: describeZod(err) }
   else if (err instanceof HttpError)
     answer = { status: err.status, body: { code: err.code, message: err.message } }
+  else if (isDatabaseUnavailable(err))
+    answer = { status: 503, body: { code: 'unavailable', message: 'The server cannot reach its database right now. Try again in a few seconds.' } }
   else
     answer = clientError(err) ?? answer
 
@@ -59,5 +65,7 @@ export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, _next)
     req.log?.error({ err }, 'request failed')
   if (res.headersSent)
     return
+  if (answer.status === 503)
+    res.set('Retry-After', String(retryAfterSeconds))
   res.status(answer.status).json({ error: answer.body } satisfies ApiErrorBody)
 }
