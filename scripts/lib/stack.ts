@@ -1,6 +1,5 @@
 import type { Env } from '../../server/env'
 import type { RunningServer } from '../../server/index'
-import type { RunningMariaDb } from './mariadb'
 import path from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { z } from 'zod'
@@ -11,8 +10,8 @@ import { ConfigError, parseEnv, servesDevMail } from '../../server/env'
 import { ListenError, serve } from '../../server/index'
 import { startFakeSmtp } from '../../server/mail/fake-smtp'
 import { ensureClientBuilt } from './build'
-import { startMariaDb } from './mariadb'
 import { loadOrCreateSecrets } from './secrets'
+import { superviseMariaDb } from './supervise'
 import { assertPortFree, SetupError } from './system'
 
 export const repoRoot = fileURLToPath(new URL('../..', import.meta.url))
@@ -73,9 +72,15 @@ export async function runStack(options: { build: boolean }): Promise<void> {
     let databaseUrl = stackEnv.DATABASE_URL
     if (!databaseUrl) {
       console.log(`Starting the private MariaDB on 127.0.0.1:${stackEnv.DB_PORT} (data in ${path.join(dataDir, 'mariadb')}) ...`)
-      const mariadb: RunningMariaDb = await startMariaDb({ dataDir: path.join(dataDir, 'mariadb'), port: stackEnv.DB_PORT })
+      const mariadb = await superviseMariaDb({ dataDir: path.join(dataDir, 'mariadb'), port: stackEnv.DB_PORT }, {
+        log: line => console.log(line),
+        onGiveUp: (reason) => {
+          console.error(`Lixivia stops: ${reason}`)
+          void shutdown(1)
+        },
+      })
       stops.push(() => mariadb.stop())
-      databaseUrl = await mariadb.provisionUser('lixivia', secrets.dbPassword, 'lixivia')
+      databaseUrl = await mariadb.current().provisionUser('lixivia', secrets.dbPassword, 'lixivia')
     }
     else {
       console.log('Using the database named by DATABASE_URL; no private MariaDB is started.')
