@@ -1,3 +1,4 @@
+import type { PoolConnection as CoreConnection, FieldPacket, QueryError, QueryResult } from 'mysql2'
 import type { Pool, PoolConnection, QueryOptions, QueryValues } from 'mysql2/promise'
 import { DatabaseBusyError, isDatabaseUnavailable } from './unavailable'
 
@@ -10,32 +11,32 @@ export interface Deadlines {
 
 type Method = 'query' | 'execute'
 type Statement = string | QueryOptions
+type Answer = [QueryResult, FieldPacket[]]
 
-/** One statement as mysql2's options, with its values and, when given, its timeout. */
-function options(statement: Statement, values: QueryValues | undefined, timeout?: number): QueryOptions {
-  return { ...(typeof statement === 'string' ? { sql: statement } : statement), ...(values === undefined ? {} : { values }), ...(timeout ? { timeout } : {}) }
+/** One statement as mysql2's options, with its values and its timeout. */
+function options(statement: Statement, values: QueryValues | undefined, timeout: number): QueryOptions {
+  return { ...(typeof statement === 'string' ? { sql: statement } : statement), ...(values === undefined ? {} : { values }), timeout }
 }
 
-const send = (connection: PoolConnection, method: Method, statement: QueryOptions) => method === 'query' ? connection.query(statement) : connection.execute(statement)
-
 /**
- * A connection whose statements time out. mysql2 only reports a timeout and keeps waiting on the
- * socket, so the connection is destroyed instead of going back to the pool with a stuck command;
- * the server rolls back whatever it had open once it notices.
+ * Sends one statement. mysql2 only reports a timeout and keeps waiting on the socket, so the
+ * connection is destroyed instead of going back to the pool with a stuck command; the server rolls
+ * back whatever it had open once it notices. (mysql2's callback API: its promise API captures a
+ * stack on every call, which halves the rate of small queries.)
  */
-function guardConnection(connection: PoolConnection, queryMs: number): PoolConnection {
-  const run = (method: Method) => async (statement: Statement, values?: QueryValues) => {
-    try {
-      return await send(connection, method, options(statement, values, queryMs))
-    }
-    catch (error) {
+function send(connection: CoreConnection, method: Method, statement: QueryOptions): Promise<Answer> {
+  return new Promise((resolve, reject) => {
+    const done = (error: QueryError | null, result: QueryResult, fields: FieldPacket[]): void => {
+      if (!error)
+        return resolve([result, fields])
       if (isDatabaseUnavailable(error))
         connection.destroy()
-      throw error
+      reject(error)
     }
-  }
-  return new Proxy(connection, {
-    get: (target, property, receiver) => property === 'query' || property === 'execute' ? run(property) : Reflect.get(target, property, receiver),
+    if (method === 'query')
+      connection.query(statement, done)
+    else
+      connection.execute(statement, done)
   })
 }
 
@@ -46,29 +47,24 @@ function guardConnection(connection: PoolConnection, queryMs: number): PoolConne
  * `getConnection` (for transactions), and all three go through here.
  */
 export function guardPool(pool: Pool, deadlines: Deadlines): Pool {
-  async function acquire(): Promise<PoolConnection> {
-    const pending = pool.getConnection()
-    let timer: NodeJS.Timeout | undefined
-    const expired = new Promise<never>((_resolve, reject) => {
-      timer = setTimeout(reject, deadlines.acquireMs, new DatabaseBusyError(`No database connection within ${deadlines.acquireMs} ms.`))
-    })
-    try {
-      return guardConnection(await Promise.race([pending, expired]), deadlines.queryMs)
-    }
-    catch (error) {
-      // A connection that arrives after the deadline goes straight back.
-      pending.then(late => late.release(), () => {})
-      throw error
-    }
-    finally {
+  const acquire = (): Promise<CoreConnection> => new Promise((resolve, reject) => {
+    let late = false
+    const timer = setTimeout(() => {
+      late = true
+      reject(new DatabaseBusyError(`No database connection within ${deadlines.acquireMs} ms.`))
+    }, deadlines.acquireMs)
+    pool.pool.getConnection((error, connection) => {
       clearTimeout(timer)
-    }
-  }
+      if (late)
+        return error ? undefined : connection.release()
+      return error ? reject(error) : resolve(connection)
+    })
+  })
 
-  const run = (method: Method) => async (statement: Statement, values?: QueryValues) => {
+  const run = (method: Method) => async (statement: Statement, values?: QueryValues): Promise<Answer> => {
     const connection = await acquire()
     try {
-      return await send(connection, method, options(statement, values))
+      return await send(connection, method, options(statement, values, deadlines.queryMs))
     }
     finally {
       // A destroyed connection has left the pool already; release is then a no-op.
@@ -76,13 +72,18 @@ export function guardPool(pool: Pool, deadlines: Deadlines): Pool {
     }
   }
 
+  /** A connection for a transaction, whose statements time out like the pool's. */
+  async function getConnection(): Promise<PoolConnection> {
+    const connection = await acquire()
+    const query = (statement: Statement, values?: QueryValues) => send(connection, 'query', options(statement, values, deadlines.queryMs))
+    const execute = (statement: Statement, values?: QueryValues) => send(connection, 'execute', options(statement, values, deadlines.queryMs))
+    return new Proxy(connection.promise(), {
+      get: (target, property, receiver) => property === 'query' ? query : property === 'execute' ? execute : Reflect.get(target, property, receiver),
+    })
+  }
+
+  const guarded = { getConnection, query: run('query'), execute: run('execute') }
   return new Proxy(pool, {
-    get(target, property, receiver) {
-      if (property === 'getConnection')
-        return acquire
-      if (property === 'query' || property === 'execute')
-        return run(property)
-      return Reflect.get(target, property, receiver)
-    },
+    get: (target, property, receiver) => property in guarded ? guarded[property as keyof typeof guarded] : Reflect.get(target, property, receiver),
   })
 }
