@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { readingRanges } from '../brewing/readings'
 import { BrewMethodSchema, CalibrationPointSchema, RangeSchema, ReadingKindSchema } from './brewing'
+import { CuppingTableDataSchema, lotGradingFields, PhotoDataSchema, ScoreDataSchema, ScoreSheetDataSchema } from './origin'
 import { freeText, IdSchema, nameText } from './primitives'
 
 // What a phone may write for each kind of record. Derived values (a calibration's fit, a brew's
@@ -42,6 +43,11 @@ export type ContextKind = z.infer<typeof ContextKindSchema>
 export const BrewContextSchema = z.strictObject({
   kind: ContextKindSchema,
   refId: id.nullable().default(null),
+  /**
+   * The cupping table a lot's bowl was brewed on (kind 'lot' only). Optional rather than defaulted,
+   * so that every context written as { kind, refId } stays a BrewContext.
+   */
+  tableId: id.nullable().optional(),
 })
 export type BrewContext = z.infer<typeof BrewContextSchema>
 
@@ -107,6 +113,11 @@ export const LotDataSchema = z.strictObject({
   askingPrice: z.number().nonnegative().max(1_000_000).nullable().default(null),
   currency: z.string().regex(/^[A-Z]{3}$/, 'must be a three-letter currency code').nullable().default(null),
   notes: freeText(2000).default(''),
+  ...lotGradingFields,
+}).check((ctx) => {
+  const { altitudeMinM, altitudeMaxM } = ctx.value
+  if (altitudeMinM !== null && altitudeMaxM !== null && altitudeMaxM < altitudeMinM)
+    ctx.issues.push({ code: 'custom', path: ['altitudeMaxM'], input: altitudeMaxM, message: 'must not be below the lower altitude' })
 })
 export const RecipeDataSchema = z.strictObject({
   name,
@@ -151,6 +162,10 @@ export const entityDataSchemas = {
   recipe: RecipeDataSchema,
   zone: ZoneDataSchema,
   zoneDefault: ZoneDefaultDataSchema,
+  cuppingTable: CuppingTableDataSchema,
+  scoreSheet: ScoreSheetDataSchema,
+  score: ScoreDataSchema,
+  photo: PhotoDataSchema,
 } as const
 
 export type EntityName = keyof typeof entityDataSchemas
