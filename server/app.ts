@@ -20,11 +20,13 @@ import { defaultRateLimits, limiter } from './middleware/rate-limits'
 import { authRoutes } from './routes/auth.routes'
 import { devMailRoutes } from './routes/dev-mail.routes'
 import { healthRoutes } from './routes/health.routes'
+import { photoRoutes } from './routes/photos.routes'
 import { roundRoutes } from './routes/rounds.routes'
 import { syncRoutes } from './routes/sync.routes'
 import { teamRoutes } from './routes/teams.routes'
 import { createAuthService } from './services/auth.service'
 import { createInvitationsService } from './services/invitations.service'
+import { createPhotosService } from './services/photos.service'
 import { createRoundsService } from './services/rounds.service'
 import { createSyncService } from './services/sync.service'
 import { createTeamsService } from './services/teams.service'
@@ -121,6 +123,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(teamRoutes(teams, invitations))
   api.use(syncRoutes(sync))
   api.use(roundRoutes(rounds))
+  api.use(photoRoutes(createPhotosService({ teams, files: deps.files })))
   app.use('/api/v1', api)
   app.use('/api', apiNotFound)
 

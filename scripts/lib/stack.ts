@@ -9,6 +9,7 @@ import { demoAccounts, demoPassword, demoTeamName, seedDemo } from '../../server
 import { ConfigError, parseEnv, servesDevMail } from '../../server/env'
 import { ListenError, serve } from '../../server/index'
 import { startFakeSmtp } from '../../server/mail/fake-smtp'
+import { createDiskStorage } from '../../server/storage/disk'
 import { ensureClientBuilt } from './build'
 import { loadOrCreateSecrets } from './secrets'
 import { superviseMariaDb } from './supervise'
@@ -89,7 +90,7 @@ export async function runStack(options: { build: boolean }): Promise<void> {
     const env = parseEnv({ JWT_SECRET: secrets.jwtSecret, ...process.env, DATABASE_URL: databaseUrl, DATA_DIR: dataDir, HOST: stackEnv.HOST, PORT: String(stackEnv.PORT), SMTP_PORT: String(stackEnv.SMTP_PORT) })
     await runMigrations(env.DATABASE_URL)
     const seeding = createDatabase(env.DATABASE_URL, { connectionLimit: 1 })
-    const seeded = await seedDemo(seeding.db).finally(() => seeding.pool.end())
+    const seeded = await seedDemo(seeding.db, createDiskStorage(path.join(dataDir, 'uploads'))).finally(() => seeding.pool.end())
 
     const smtp = await startFakeSmtp({ port: env.SMTP_PORT, mailDir: path.join(dataDir, 'mail') })
     stops.push(() => smtp.close())

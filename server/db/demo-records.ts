@@ -1,16 +1,16 @@
+import type { DemoMutation, DemoPhoto } from './demo-origin'
 import { v7 as uuidv7 } from 'uuid'
 import { brixToRefractiveIndex, defaultBrixFactor } from '../../shared/brewing'
-
-/** A mutation as a phone would push it, for the demo team's first records. */
-interface DemoMutation { mutationId: string, entity: string, op: 'put', id: string, teamId: string, data: Record<string, unknown>, baseRev: null }
+import { demoOrigin } from './demo-origin'
 
 /**
  * The demo team's records, all invented: two refractometers (one calibrated with sucrose
- * standards), a house recipe, a buying trip with two lots, an event round with three cups, and a
- * week of brews measured against them. Returned per author, in the order they must be pushed.
+ * standards), a house recipe, a buying trip with four lots cupped on a table (demo-origin.ts), an
+ * event round with three cups, and a week of brews measured against them. Returned per author, in
+ * the order they must be pushed, with the photos whose pictures the seed stores.
  */
-export function demoRecords(teamId: string, people: { owner: string, lead: string, member: string }, now = Date.now()): { userId: string, mutations: DemoMutation[] }[] {
-  const put = (entity: string, data: Record<string, unknown>): DemoMutation => ({ mutationId: uuidv7(), entity, op: 'put', id: uuidv7(), teamId, data, baseRev: null })
+export function demoRecords(teamId: string, people: { owner: string, lead: string, member: string }, now = Date.now()): { userId: string, mutations: DemoMutation[], photos?: DemoPhoto[] }[] {
+  const put = (entity: string, data: Record<string, unknown>, id = uuidv7()): DemoMutation => ({ mutationId: uuidv7(), entity, op: 'put', id, teamId, data, baseRev: null })
   const at = (daysAgo: number, hour: number): string => new Date(Math.floor(now / 86_400_000 - daysAgo) * 86_400_000 + hour * 3_600_000).toISOString()
 
   const prism = put('instrument', { label: 'Quayside prism', readingKind: 'nD', resolution: 0.00001, repeatability: 0.00002, brixFactor: null, notes: 'Bench refractometer with temperature compensation.' })
@@ -19,9 +19,6 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
   const standards = [[0, 1.33300], [1, 1.33442], [2, 1.33587], [3, 1.33731]].map(([concentration, reading]) => ({ concentration, reading }))
   const line = put('calibration', { instrumentId: prism.id, standardUnit: 'brix', points: standards, zeroReading: 1.33300, temperatureC: 20, active: true, calibratedAt: at(6, 8), notes: 'Fresh standards, mixed by mass.' })
   const recipe = put('recipe', { name: 'House filter', method: 'percolation', dose: 15, waterMass: 250, targetTdsPercent: 1.3, targetYieldPercent: 20.5, grindSetting: '22 clicks', contactTimeSeconds: 210, waterTemperatureC: 94, notes: 'Paper filter, 40 s bloom.' })
-  const trip = put('trip', { name: 'North Terraces buying trip', origin: 'North Terraces', startsOn: at(10, 0).slice(0, 10), endsOn: at(3, 0).slice(0, 10), notes: '' })
-  const alder = put('lot', { tripId: trip.id, farm: 'Alder Ridge Estate', region: 'North Terraces', variety: 'Typica', process: 'washed', moisturePercent: 10.8, lotSizeKg: 1380, askingPrice: 7.4, currency: 'EUR', notes: '' })
-  const copperbeck = put('lot', { tripId: trip.id, farm: 'Copperbeck Farm', region: 'South Valley', variety: 'Bourbon', process: 'natural', moisturePercent: 11.4, lotSizeKg: 690, askingPrice: 8.1, currency: 'EUR', notes: '' })
   const event = put('event', { name: 'Kestrel Quay Brewers Open', venue: 'Net Loft Hall', startsOn: at(1, 0).slice(0, 10), endsOn: at(1, 0).slice(0, 10), zoneId: 'european-drip' })
   const heat = put('round', { eventId: event.id, name: 'Heat 1', position: 1, toleranceTdsPercent: 0.1, toleranceYieldPercent: 1 })
   const cups = ['K1', 'K2', 'K3'].map(code => put('entry', { roundId: heat.id, code, contestant: '', notes: '' }))
@@ -30,12 +27,13 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
     const made = put('brew', { context: { kind: 'quick', refId: null }, instrumentId: instrument.id, calibrationId: calibration?.id ?? null, strengthSource: calibration ? 'calibration' : 'direct', ...data })
     return [made, ...values.map(value => put('reading', { brewId: made.id, value, kind, temperatureC: null, instrumentId: instrument.id, calibrationId: calibration?.id ?? null, takenAt: made.data.brewedAt }))]
   }
-  // A cupping bowl read on the prism: the nD sucrose of the same °Brix shows (ICUMSA), TDS = 0.85 × °Brix.
+  // A cupping bowl read twice on the prism: the nD sucrose of the same °Brix shows (ICUMSA), TDS = 0.85 × °Brix.
   const nD = (tdsPercent: number): number => Math.round(brixToRefractiveIndex(tdsPercent / defaultBrixFactor) * 1e5) / 1e5
-  const bowl = (lot: DemoMutation, tds: number[], daysAgo: number) => brew({ context: { kind: 'lot', refId: lot.id }, method: 'immersion', dose: 8.25, waterMass: 150, brixFactor: 0.85, grindSetting: 'cupping', contactTimeSeconds: 240, waterTemperatureC: 93, brewedAt: at(daysAgo, 15) }, tds.map(nD), 'nD', prism, line)
+  const bowl = (lot: DemoMutation, table: DemoMutation, tds: number, brewedAt: string) => brew({ context: { kind: 'lot', refId: lot.id, tableId: table.id }, method: 'immersion', dose: 8.25, waterMass: 150, brixFactor: 0.85, grindSetting: 'Bench grinder, setting 9', contactTimeSeconds: null, waterTemperatureC: 93, brewedAt }, [nD(tds), nD(tds) + 0.00001], 'nD', prism, line)
+  const origin = demoOrigin({ put, bowl, at, people })
 
   return [
-    { userId: people.owner, mutations: [prism, pen, line, recipe, trip, alder, copperbeck, event, heat, ...cups] },
+    { userId: people.owner, mutations: [prism, pen, line, recipe, ...origin.setup, event, heat, ...cups] },
     {
       userId: people.member,
       mutations: [
@@ -47,10 +45,10 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
       userId: people.lead,
       mutations: [
         ...brew({ context: { kind: 'recipe', refId: recipe.id }, method: 'percolation', dose: 15, beverageMass: 246, grindSetting: '21 clicks', contactTimeSeconds: 230, waterTemperatureC: 95, notes: '', brewedAt: at(3, 11) }, [1.36, 1.37], 'tds', pen, null),
-        ...bowl(alder, [1.12, 1.13, 1.12], 3),
-        ...bowl(copperbeck, [1.22, 1.21, 1.23], 3),
       ],
     },
+    { userId: people.lead, mutations: origin.lead, photos: origin.photos },
+    { userId: people.owner, mutations: origin.owner },
     {
       userId: people.owner,
       mutations: [

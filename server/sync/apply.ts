@@ -7,7 +7,7 @@ import type { Touch } from './derive'
 import type { RecordBatch, RecordRow } from './store'
 import { BrewingInputError } from '../../shared/brewing'
 import { definitionOf } from '../../shared/records/registry'
-import { frozenMessage, refusalOf, roundIdOf } from '../../shared/records/rules'
+import { frozenMessage, identityRefusal, refusalOf, roundIdOf } from '../../shared/records/rules'
 import { entityDataSchemas } from '../../shared/schemas/entities'
 import { deriveCalibration } from './derive'
 import { toRecord } from './store'
@@ -98,7 +98,7 @@ export async function applyMutation(ctx: ApplyContext, m: Mutation): Promise<Mut
   const data = parsed.data
   const fields: Record<string, unknown> = data
   const authorId = await authorOf(batch, m.entity, data, current, actor.userId)
-  const refusal = refusalOf(actor, { entity: m.entity, op: current ? 'edit' : 'create', authorId, reason: m.reason })
+  const refusal = refusalOf(actor, { entity: m.entity, op: current ? 'edit' : 'create', authorId, reason: m.reason }) ?? identityRefusal(m.entity, m.id, fields, current?.createdBy ?? actor.userId)
   if (refusal)
     return rejected(refusal)
   const changed = current ? Object.keys(m.data).filter(key => key in fields && !same(fields[key], current.data[key])) : Object.keys(fields)

@@ -45,7 +45,7 @@ export const entities: Definitions = {
     title: data => `${data.method.charAt(0).toUpperCase()}${data.method.slice(1)} brew of ${data.brewedAt.slice(0, 10)}`,
     reasonForTeammate: true,
     parent: data => contextRef(data.context),
-    links: data => [contextRef(data.context), ref('calibration', data.calibrationId)].filter(r => r !== null),
+    links: data => [contextRef(data.context), ref('calibration', data.calibrationId), data.context.kind === 'lot' ? ref('cuppingTable', data.context.tableId) : null].filter(r => r !== null),
   },
   reading: { ...child<'reading'>(data => ref('brew', data.brewId)), ...noun('reading'), title: data => `Reading ${data.value}`, appendOnly: true, governedBy: 'parent', reasonForTeammate: true },
   event: { ...standalone, ...noun('event'), title: data => data.name },
@@ -56,6 +56,30 @@ export const entities: Definitions = {
   recipe: { ...standalone, ...noun('recipe'), title: data => data.name },
   zone: { ...standalone, ...noun('zone'), title: data => data.name },
   zoneDefault: { ...standalone, ...noun('default zone'), title: data => `Default ${data.family} zone`, writers: 'lead', appendOnly: true },
+  cuppingTable: {
+    ...plain,
+    ...noun('cupping table'),
+    title: data => `Cupping table of ${data.heldOn}${data.place ? ` at ${data.place}` : ''}`,
+    parent: data => ref('trip', data.tripId),
+    links: data => [ref('trip', data.tripId), ...data.lotIds.map(id => ref('lot', id)), ref('scoreSheet', data.scoreSheetId)].filter(r => r !== null),
+  },
+  // The team's score sheets are set up by a lead, like its default zones.
+  scoreSheet: { ...standalone, ...noun('score sheet'), title: data => data.name, writers: 'lead' },
+  score: {
+    ...plain,
+    ...noun('score'),
+    title: () => 'Cupping score',
+    reasonForTeammate: true,
+    parent: data => ref('cuppingTable', data.tableId),
+    links: data => [ref('cuppingTable', data.tableId), ref('lot', data.lotId)].filter(r => r !== null),
+  },
+  photo: {
+    ...plain,
+    ...noun('photo'),
+    title: data => data.caption || `Photo of ${data.takenAt.slice(0, 10)}`,
+    parent: data => ref('brew', data.brewId) ?? ref('lot', data.lotId) ?? ref('trip', data.tripId),
+    links: data => [ref('trip', data.tripId), ref('lot', data.lotId), ref('brew', data.brewId)].filter(r => r !== null),
+  },
 }
 
 /**

@@ -1,5 +1,6 @@
 import type { Role } from '../schemas/auth'
 import type { EntityData, EntityName } from '../schemas/entities'
+import { v5 as uuidv5 } from 'uuid'
 import { definitionOf } from './registry'
 
 // Who may do what (DESIGN.md), in one place: the server enforces these rules on every route and
@@ -12,6 +13,8 @@ export const can = {
   invite: (role: Role, invitedRole: Role) => role === 'owner' || (role === 'lead' && (invitedRole === 'member' || invitedRole === 'viewer')),
   seeInvitations: (role: Role) => role === 'owner' || role === 'lead',
   signOff: (role: Role) => role === 'owner' || role === 'lead',
+  /** Photos and other files go with the records a person may write: not for viewers. */
+  uploadFiles: (role: Role) => role !== 'viewer',
 }
 
 export interface Actor { userId: string, role: Role }
@@ -88,4 +91,24 @@ export async function roundIdOf(entity: EntityName, id: string, data: Record<str
   if (kind !== 'entry' || !refId)
     return null
   return (await lookup('entry', refId))?.data.roundId ?? null
+}
+
+// A fixed namespace for the ids of scores (a UUID v5 needs one); never change it.
+const scoreNamespace = '6f1d7c52-3a8e-4b0f-9c41-2d5e8a7b9c10'
+
+/**
+ * The id of a taster's score of a lot on a cupping table: the same on every phone, so one taster
+ * has one score per lot per table, and a second phone's copy meets the first as an edit.
+ */
+export function scoreIdOf(tableId: string, lotId: string, tasterId: string): string {
+  return uuidv5(`${tableId.toLowerCase()}/${lotId.toLowerCase()}/${tasterId.toLowerCase()}`, scoreNamespace)
+}
+
+/** Why a new record cannot have this id, or null: a score's id must come from its table, lot and taster. */
+export function identityRefusal(entity: EntityName, id: string, data: Record<string, unknown>, authorId: string): string | null {
+  if (entity !== 'score' || typeof data.tableId !== 'string' || typeof data.lotId !== 'string')
+    return null
+  return id.toLowerCase() === scoreIdOf(data.tableId, data.lotId, authorId)
+    ? null
+    : 'A taster keeps one score per lot on a table: this score\'s id does not come from its table, lot and taster.'
 }

@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { readingRanges } from '../brewing/readings'
 import { BrewMethodSchema, CalibrationPointSchema, RangeSchema, ReadingKindSchema } from './brewing'
+import { CuppingTableDataSchema, lotGradingFields, PhotoDataSchema, ScoreDataSchema, ScoreSheetDataSchema } from './origin'
 import { freeText, IdSchema, nameText } from './primitives'
 
 // What a phone may write for each kind of record. Derived values (a calibration's fit, a brew's
@@ -42,6 +43,11 @@ export type ContextKind = z.infer<typeof ContextKindSchema>
 export const BrewContextSchema = z.strictObject({
   kind: ContextKindSchema,
   refId: id.nullable().default(null),
+  /**
+   * The cupping table a lot's bowl was brewed on (kind 'lot' only). Optional rather than defaulted,
+   * so that every context written as { kind, refId } stays a BrewContext.
+   */
+  tableId: id.nullable().optional(),
 })
 export type BrewContext = z.infer<typeof BrewContextSchema>
 
@@ -102,11 +108,16 @@ export const LotDataSchema = z.strictObject({
   region: freeText(120).default(''),
   variety: freeText(120).default(''),
   process: freeText(60).default(''),
-  moisturePercent: z.number().min(0).lt(100).nullable().default(null),
-  lotSizeKg: z.number().nonnegative().max(10_000_000).nullable().default(null),
-  askingPrice: z.number().nonnegative().max(1_000_000).nullable().default(null),
+  moisturePercent: z.number().min(0, 'cannot be negative').lt(100, 'must be below 100 %').nullable().default(null),
+  lotSizeKg: z.number().nonnegative('cannot be negative').max(10_000_000, 'must be at most 10,000,000 kg').nullable().default(null),
+  askingPrice: z.number().nonnegative('cannot be negative').max(1_000_000, 'must be at most 1,000,000').nullable().default(null),
   currency: z.string().regex(/^[A-Z]{3}$/, 'must be a three-letter currency code').nullable().default(null),
   notes: freeText(2000).default(''),
+  ...lotGradingFields,
+}).check((ctx) => {
+  const { altitudeMinM, altitudeMaxM } = ctx.value
+  if (altitudeMinM !== null && altitudeMaxM !== null && altitudeMaxM < altitudeMinM)
+    ctx.issues.push({ code: 'custom', path: ['altitudeMaxM'], input: altitudeMaxM, message: 'must not be below the lower altitude' })
 })
 export const RecipeDataSchema = z.strictObject({
   name,
@@ -151,6 +162,10 @@ export const entityDataSchemas = {
   recipe: RecipeDataSchema,
   zone: ZoneDataSchema,
   zoneDefault: ZoneDefaultDataSchema,
+  cuppingTable: CuppingTableDataSchema,
+  scoreSheet: ScoreSheetDataSchema,
+  score: ScoreDataSchema,
+  photo: PhotoDataSchema,
 } as const
 
 export type EntityName = keyof typeof entityDataSchemas

@@ -70,6 +70,10 @@ export const derivedSchemas = {
   recipe: z.null(),
   zone: z.null(),
   zoneDefault: z.null(),
+  cuppingTable: z.null(),
+  scoreSheet: z.null(),
+  score: z.null(),
+  photo: z.null(),
 } as const satisfies Record<EntityName, z.ZodType>
 
 export type EntityDerived<E extends EntityName> = z.infer<(typeof derivedSchemas)[E]>

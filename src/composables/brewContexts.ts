@@ -1,7 +1,8 @@
 import type { Zone, ZoneFamily } from '../../shared/brewing'
 import type { BrewContext } from '../../shared/schemas/entities'
 import type { LocalRecord } from '../db/database'
-import { defaultZone, findZonePreset, methodFamily, zoneFamily } from '../../shared/brewing'
+import { cuppingZone, defaultZone, findZonePreset, methodFamily, zoneFamily } from '../../shared/brewing'
+import { dayOf } from '../forms/format'
 
 /** The zone a brew is judged against, and where it comes from, in words for the screen. */
 export interface JudgedZone {
@@ -21,6 +22,8 @@ export interface ContextRecords {
   zones: (id: string) => Zone | undefined
   /** The team's default choices, newest last. */
   defaults: LocalRecord<'zoneDefault'>[]
+  /** Cupping tables, for the bowls brewed on them. */
+  tables?: Map<string, LocalRecord<'cuppingTable'>>
 }
 
 /** What a brew was measured for, in a few words: "Cup K1 · Heat 1", "Lot: Alder Ridge Estate". */
@@ -34,7 +37,10 @@ export function contextLabel(context: BrewContext, found: ContextRecords): strin
   }
   if (context.kind === 'lot') {
     const lot = found.lots.get(context.refId)
-    return lot ? `Lot: ${lot.farm}` : 'A lot not on this phone'
+    const table = context.tableId ? found.tables?.get(context.tableId) : undefined
+    // The table's day in the phone's locale: one lot is often cupped on several days of a trip.
+    const at = table ? ` · table of ${dayOf(`${table.heldOn}T12:00:00`)}` : ''
+    return lot ? `Lot: ${lot.farm}${at}` : 'A lot not on this phone'
   }
   const recipe = found.recipes.get(context.refId)
   return recipe ? `Recipe: ${recipe.name}` : 'A recipe not on this phone'
@@ -48,8 +54,8 @@ export function teamDefault(family: ZoneFamily, found: ContextRecords): Zone {
 }
 
 /**
- * The zone a brew's verdict belongs to: its context's (an event's for a cup), else the team's
- * default for its family. The same on every phone, list, chart and export, whatever the phone shows
+ * The zone a brew's verdict belongs to: its context's (an event's for a cup, the cupping zone for
+ * a lot's bowl), else the team's default for its family. The same on every phone, list, chart and export, whatever the phone shows
  * on its own chart. A zone of the wrong family (a drip zone for an espresso) is never used.
  */
 export function judgedZone(context: BrewContext, method: string, found: ContextRecords): JudgedZone {
@@ -62,5 +68,8 @@ export function judgedZone(context: BrewContext, method: string, found: ContextR
     if (zone && zoneFamily(zone) === family)
       return { zone, source: 'the event\'s zone' }
   }
+  // A lot's brew is a cupping bowl: judged, never dialled in (the cupping zone gives no advice).
+  if (context.kind === 'lot' && family === zoneFamily(cuppingZone))
+    return { zone: cuppingZone, source: 'the zone for cupping bowls' }
   return { zone: teamDefault(family, found), source: 'the team\'s default' }
 }

@@ -4,6 +4,7 @@ import type { LocalRecord } from '../db/database'
 import type { BrewForm } from './useBrewForm'
 import { cuppingDose, formatMass } from '../../shared/brewing'
 import { db } from '../db/database'
+import { dayOf, grams } from '../forms/format'
 import { formatDuration, numberText } from '../forms/numbers'
 import { capital } from '../forms/words'
 import { useLiveQuery } from './useLiveQuery'
@@ -36,7 +37,16 @@ export async function describeContext(context: BrewContext): Promise<BrewContext
   const found = await findContext(kind, refId)
   if (!found || found.record.deletedAt)
     return { ...quick, kind, title: 'Not on this phone', detail: 'The record this brew belongs to has not synced here, or was deleted.' }
-  return describeRecord(found)
+  const view = await describeRecord(found)
+  const table = kind === 'lot' && context.tableId ? await db.cuppingTables.get(context.tableId) : undefined
+  if (!table || table.deletedAt)
+    return view
+  // A bowl on a cupping table follows the table's protocol: its dose, water, grind and temperature.
+  return {
+    ...view,
+    detail: [view.detail.split(' · cupping bowl')[0], `table of ${dayOf(`${table.heldOn}T12:00:00`)}${table.place ? ` at ${table.place}` : ''}`, `${grams(table.doseG)} per ${formatMass(table.waterMl, 1)} mL`].filter(Boolean).join(' · '),
+    defaults: { method: 'immersion', byDifference: false, dose: numberText(table.doseG), waterMass: numberText(table.waterMl), grindSetting: table.grind, waterTemperature: numberText(table.waterTemperatureC) },
+  }
 }
 
 async function findContext(kind: ContextEntity, id: string): Promise<ContextRecord | undefined> {

@@ -85,6 +85,14 @@ export interface UploadEntry {
   sentAt?: string
 }
 
+/** A teammate's photo, fetched from the team server and kept on this phone. */
+export interface PhotoFile {
+  id: string
+  teamId: string
+  blob: Blob
+  fetchedAt: string
+}
+
 /** Each entity's table, typed by its record. */
 export type RecordTables = { [E in EntityName]: Table<LocalRecord<E>, string> }
 
@@ -101,6 +109,10 @@ export const tableOf = {
   recipe: 'recipes',
   zone: 'zones',
   zoneDefault: 'zoneDefaults',
+  cuppingTable: 'cuppingTables',
+  scoreSheet: 'scoreSheets',
+  score: 'scores',
+  photo: 'photos',
 } as const satisfies Record<EntityName, string>
 export type RecordTableName = (typeof tableOf)[EntityName]
 
@@ -122,6 +134,12 @@ export class LixiviaDatabase extends Dexie {
   zones!: RecordTables['zone']
   zoneDefaults!: RecordTables['zoneDefault']
   uploads!: Table<UploadEntry, string>
+  cuppingTables!: RecordTables['cuppingTable']
+  scoreSheets!: RecordTables['scoreSheet']
+  scores!: RecordTables['score']
+  photos!: RecordTables['photo']
+  /** Photos this phone did not take, kept once fetched so they show without signal. */
+  photoFiles!: Table<PhotoFile, string>
   /** The record tables by entity, for code that handles any entity. */
   readonly records: RecordTables
 
@@ -148,6 +166,14 @@ export class LixiviaDatabase extends Dexie {
     this.version(4).stores({ uploads: 'id, teamId, state, createdAt', zoneDefaults: 'id, teamId, sync.state' }).upgrade(async (tx) => {
       await tx.table('meta').where('key').startsWith('cursor:').delete()
     })
+    // Buying trips at origin: cupping tables, score sheets and scores, photos and the photos fetched from teammates.
+    this.version(6).stores({
+      cuppingTables: 'id, teamId, tripId, sync.state',
+      scoreSheets: 'id, teamId, sync.state',
+      scores: 'id, teamId, tableId, sync.state',
+      photos: 'id, teamId, tripId, lotId, brewId, sync.state',
+      photoFiles: 'id, teamId',
+    })
     this.records = {
       instrument: this.instruments,
       calibration: this.calibrations,
@@ -161,6 +187,10 @@ export class LixiviaDatabase extends Dexie {
       recipe: this.recipes,
       zone: this.zones,
       zoneDefault: this.zoneDefaults,
+      cuppingTable: this.cuppingTables,
+      scoreSheet: this.scoreSheets,
+      score: this.scores,
+      photo: this.photos,
     }
   }
 

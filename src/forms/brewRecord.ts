@@ -54,7 +54,8 @@ export function formOfBrew(brew: EntityData<'brew'>, readings: readonly Pick<Loc
   const excluded = new Set(brew.excludedReadingIds)
   return {
     ...emptyBrewForm(),
-    context: { kind: brew.context.kind, refId: brew.context.refId },
+    // The whole context, so an edited bowl stays on its cupping table.
+    context: { ...brew.context },
     method: brew.method,
     instrumentId: brew.instrumentId,
     manualSource: brew.strengthSource === 'brix-factor' ? 'brix-factor' : 'direct',

@@ -1,8 +1,9 @@
 import type { ContextRecords } from '../../src/composables/brewContexts'
 import type { LocalRecord } from '../../src/db/database'
 import { describe, expect, it } from 'vitest'
-import { defineZone, findZonePreset } from '../../shared/brewing'
+import { cuppingZone, defineZone, findZonePreset } from '../../shared/brewing'
 import { contextLabel, judgedZone, teamDefault } from '../../src/composables/brewContexts'
+import { dayOf } from '../../src/forms/format'
 import { localRecord } from './records'
 
 const houseZone = defineZone({ id: 'zone-house', name: 'House strong', tdsPercent: { min: 1.35, max: 1.6 }, yieldPercent: { min: 19, max: 22 } })
@@ -20,6 +21,7 @@ function records(defaults: LocalRecord<'zoneDefault'>[] = []): ContextRecords {
     recipes: map(localRecord('recipe', { id: 'recipe-1', name: 'House filter' })),
     zones: id => findZonePreset(id) ?? (id === houseZone.id ? houseZone : undefined),
     defaults,
+    tables: map(localRecord('cuppingTable', { id: 'table-1', heldOn: '2026-11-28', place: 'Hollin Step mill', lotIds: ['lot-1'] })),
   }
 }
 
@@ -32,6 +34,12 @@ describe('judgedZone', () => {
     expect(judgedZone({ kind: 'quick', refId: null }, 'percolation', records()).zone.id).toBe('us-drip')
     const defaults = [localRecord('zoneDefault', { family: 'filter', zoneId: 'nordic-drip' }), localRecord('zoneDefault', { family: 'filter', zoneId: houseZone.id })]
     expect(judgedZone({ kind: 'quick', refId: null }, 'percolation', records(defaults))).toEqual({ zone: houseZone, source: 'the team\'s default' })
+  })
+
+  it('judges every bowl of a lot against the cupping zone, whatever the team\'s default', () => {
+    const defaults = [localRecord('zoneDefault', { family: 'filter', zoneId: 'nordic-drip' })]
+    expect(judgedZone({ kind: 'lot', refId: 'lot-1', tableId: 'table-1' }, 'immersion', records(defaults))).toEqual({ zone: cuppingZone, source: 'the zone for cupping bowls' })
+    expect(judgedZone({ kind: 'lot', refId: 'lot-1' }, 'immersion', records(defaults)).zone).toBe(cuppingZone)
   })
 
   it('never judges an espresso against a drip zone', () => {
@@ -48,7 +56,14 @@ describe('contextLabel', () => {
     [{ kind: 'recipe', refId: 'recipe-1' }, 'Recipe: House filter'],
     [{ kind: 'quick', refId: null }, 'Quick brew'],
     [{ kind: 'lot', refId: 'lot-gone' }, 'A lot not on this phone'],
+    [{ kind: 'lot', refId: 'lot-1', tableId: 'table-gone' }, 'Lot: Alder Ridge Estate'],
   ] as const)('names %o as %s', (context, label) => {
     expect(contextLabel(context, records())).toBe(label)
+  })
+})
+
+describe('contextLabel of a bowl on a cupping table', () => {
+  it('names the lot and the table\'s day in the phone\'s locale', () => {
+    expect(contextLabel({ kind: 'lot', refId: 'lot-1', tableId: 'table-1' }, records())).toBe(`Lot: Alder Ridge Estate · table of ${dayOf('2026-11-28T12:00:00')}`)
   })
 })

@@ -50,4 +50,12 @@ describe('a brew from the form to its record and back', () => {
     expect(edited.readings.map(r => r.excluded)).toEqual([false, false, true])
     expect(computeBrew(brewInputOf({ ...stored, excludedReadingIds: [readings[2]!.id] }, readings, null)).tdsPercent).toBeCloseTo(1.345, 12)
   })
+
+  it('keeps a cupping bowl on its table when it is edited', () => {
+    const context = { kind: 'lot' as const, refId: '0190a8c4-0000-7000-8000-0000000000c1', tableId: '0190a8c4-0000-7000-8000-0000000000c2' }
+    const { stored, readings, again } = roundTrip({ context, method: 'immersion', byDifference: false, dose: '8.25', waterMass: '150', instrumentId: pen.id, readings: [{ value: 1.12, excluded: false }] })
+    expect(stored.context).toEqual(context)
+    expect(formOfBrew(stored, readings).context).toEqual(context)
+    expect(again.context.tableId).toBe(context.tableId)
+  })
 })
