@@ -7,8 +7,11 @@ import { computed, inject, reactive, watch } from 'vue'
 import { brewRatio, brewUncertainty, computeBrew, defaultRetainedRatio, summarizeReadings, zoneVerdict } from '../../shared/brewing'
 import { readDuration, readNumber } from '../forms/numbers'
 
-/** One reading in the form: stored ones carry their id and can only be set aside, never removed. */
-export interface BrewFormReading { value: number, id?: string, excluded: boolean }
+/**
+ * One reading in the form: stored ones carry their id and can only be set aside, never removed.
+ * `kept`: the person chose to keep a reading Dixon's Q flags, which is otherwise left out.
+ */
+export interface BrewFormReading { value: number, id?: string, excluded: boolean, kept?: boolean }
 
 /** What the person types, as typed: numbers stay text until they are read. */
 export interface BrewForm {
@@ -90,8 +93,13 @@ export interface BrewOutcome {
   input: BrewInput
   result: BrewResult
   strength: StrengthSource
-  /** Mean and spread of the readings not set aside; the outlier's index is into form.readings. */
+  /** Mean and spread of the readings the result uses. */
   readings: ReadingsSummary | null
+  /**
+   * The reading Dixon's Q flags among those not set aside (its index is into form.readings), and
+   * whether it is left out of the result: it is unless the person keeps it.
+   */
+  outlier: (NonNullable<ReadingsSummary['outlier']> & { leftOut: boolean }) | null
   uncertainty: BrewUncertainty | null
   verdict: ZoneVerdict | null
   /** Water per gram of coffee, when the water was given. */
@@ -119,7 +127,11 @@ export function useBrewForm(initial: BrewForm, options: { gauges: Ref<ReadonlyMa
   const outcome = computed<BrewOutcome>(() => {
     const read = Object.fromEntries(numberFields.map(field => [field, readNumber(form[field])])) as Record<(typeof numberFields)[number], ReturnType<typeof readNumber>>
     const strength = strengthSourceOf(gauge.value, form.manualSource)
-    const included = form.readings.flatMap((reading, index) => (reading.excluded ? [] : [{ value: reading.value, index }]))
+    const active = form.readings.flatMap((reading, index) => (reading.excluded ? [] : [{ value: reading.value, index }]))
+    // One pass of Dixon's Q over the readings not set aside: a flagged one leaves the result unless kept.
+    const flagged = active.length ? summarizeReadings(active.map(reading => reading.value)).outlier : null
+    const outlier = flagged && { ...flagged, index: active[flagged.index]!.index, leftOut: !form.readings[active[flagged.index]!.index]!.kept }
+    const included = outlier?.leftOut ? active.filter(reading => reading.index !== outlier.index) : active
     const masses = form.byDifference
       ? { doseGross: read.doseGross.value, doseTare: read.doseTare.value, beverageGross: read.beverageGross.value, beverageTare: read.beverageTare.value }
       : { dose: read.dose.value, beverageMass: read.beverageMass.value }
@@ -143,14 +155,14 @@ export function useBrewForm(initial: BrewForm, options: { gauges: Ref<ReadonlyMa
     if (temperature !== null && (temperature < 0 || temperature > 100))
       invalid.push('waterTemperature')
     const summary = included.length ? summarizeReadings(input.readings) : null
-    const outlier = summary?.outlier ? { ...summary.outlier, index: included[summary.outlier.index]!.index } : null
     const { zone, source: zoneSource } = options.judge(form.context, form.method)
     const water = read.waterMass.value
     return {
       input,
       result,
       strength,
-      readings: summary && { ...summary, outlier },
+      readings: summary && { ...summary, outlier: null },
+      outlier,
       uncertainty: brewUncertainty(input, result, { scaleResolution, byDifference: form.byDifference, repeatability: strength.repeatability }),
       verdict: result.tdsPercent !== null && result.yieldPercent !== null && result.tdsPercent > 0 && result.yieldPercent > 0 ? zoneVerdict(zone, { tdsPercent: result.tdsPercent, yieldPercent: result.yieldPercent }) : null,
       ratio: result.dose !== null && water !== null && water > 0 ? brewRatio(result.dose, water) : null,

@@ -2,7 +2,7 @@ import type { BrewResult } from '../../shared/brewing'
 import type { EntityDerived } from '../../shared/schemas/records'
 import type { Gauge } from '../composables/useGauges'
 import type { LocalRecord } from '../db/database'
-import type { BrewFields, ReadingFields } from './brewRecord'
+import type { BrewFields, NewReading } from './brewRecord'
 import { computeBrew, defaultBrixFactor, readingRanges } from '../../shared/brewing'
 import { strengthSourceOf } from '../composables/useBrewForm'
 import { readNumber } from './numbers'
@@ -50,7 +50,7 @@ export function bowlOutcome(entry: BowlEntry, gauge: Gauge | null): BowlOutcome 
  * A bowl's brew record and its readings: a full immersion for the lot on this table, at the table's
  * grind and temperature, the water taken as grams (1 mL ≈ 1 g, as ratio.ts does).
  */
-export function bowlRecord(table: LocalRecord<'cuppingTable'>, lotId: string, entry: BowlEntry, gauge: Gauge | null, brewedAt: string): { data: BrewFields & { brewedAt: string }, readings: ReadingFields[], derived: EntityDerived<'brew'> } | null {
+export function bowlRecord(table: LocalRecord<'cuppingTable'>, lotId: string, entry: BowlEntry, gauge: Gauge | null, brewedAt: string): { data: BrewFields & { brewedAt: string }, readings: NewReading[], derived: EntityDerived<'brew'> } | null {
   const { result, invalid, readings } = bowlOutcome(entry, gauge)
   if (invalid.length || result.tdsPercent === null || result.yieldPercent === null)
     return null
@@ -79,7 +79,8 @@ export function bowlRecord(table: LocalRecord<'cuppingTable'>, lotId: string, en
       excludedReadingIds: [],
       brewedAt,
     },
-    readings: readings.map(value => ({ value, kind: strength.kind, temperatureC: null, instrumentId: gauge?.instrument.id ?? null, calibrationId, takenAt: brewedAt })),
+    // A bowl keeps every reading: its evenness is judged against the other bowls, not within itself.
+    readings: readings.map(value => ({ data: { value, kind: strength.kind, temperatureC: null, instrumentId: gauge?.instrument.id ?? null, calibrationId, takenAt: brewedAt }, leftOut: false })),
     derived: { tdsPercent: result.tdsPercent, yieldPercent: result.yieldPercent },
   }
 }

@@ -33,20 +33,28 @@ export function brewDataOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge | 
     contactTimeSeconds: readDuration(form.contactTime).value,
     waterTemperatureC: blank(form.waterTemperature),
     notes: form.notes.trim(),
-    excludedReadingIds: form.readings.flatMap(reading => (reading.excluded && reading.id ? [reading.id] : [])),
+    excludedReadingIds: form.readings.flatMap((reading, index) => ((reading.excluded || (outcome.outlier?.leftOut && outcome.outlier.index === index)) && reading.id ? [reading.id] : [])),
   }
 }
 
+/** A reading typed on this screen, not stored yet, and whether the result leaves it out (an outlier). */
+export interface NewReading { data: ReadingFields, leftOut: boolean }
+
 /** The readings typed on this screen, not yet stored, as reading records. */
-export function newReadingsOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge | null, takenAt: string): ReadingFields[] {
-  return form.readings.filter(reading => !reading.id).map(reading => ({
-    value: reading.value,
-    kind: outcome.strength.kind,
-    temperatureC: null,
-    instrumentId: gauge?.instrument.id ?? null,
-    calibrationId: outcome.strength.source === 'calibration' ? gauge?.calibration?.id ?? null : null,
-    takenAt,
-  }))
+export function newReadingsOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge | null, takenAt: string): NewReading[] {
+  return form.readings.flatMap((reading, index) => (reading.id
+    ? []
+    : [{
+        data: {
+          value: reading.value,
+          kind: outcome.strength.kind,
+          temperatureC: null,
+          instrumentId: gauge?.instrument.id ?? null,
+          calibrationId: outcome.strength.source === 'calibration' ? gauge?.calibration?.id ?? null : null,
+          takenAt,
+        },
+        leftOut: Boolean(outcome.outlier?.leftOut && outcome.outlier.index === index),
+      }]))
 }
 
 /** A stored brew back in the form, to edit it: readings keep their ids and can only be set aside. */
@@ -73,6 +81,7 @@ export function formOfBrew(brew: EntityData<'brew'>, readings: readonly Pick<Loc
     contactTime: formatDuration(brew.contactTimeSeconds),
     waterTemperature: numberText(brew.waterTemperatureC),
     notes: brew.notes,
-    readings: readings.map(reading => ({ id: reading.id, value: reading.value, excluded: excluded.has(reading.id) })),
+    // A reading left out as an outlier comes back set aside, which is what it is on record.
+    readings: readings.map(reading => ({ id: reading.id, value: reading.value, excluded: excluded.has(reading.id), kept: true })),
   }
 }

@@ -33,7 +33,7 @@ function harness(gauge: Gauge | null = null, initial: Partial<BrewForm> = {}) {
       return () => h('div', [
         h(BrewStrengthSource, { gauges: gauge ? [gauge] : [], gauge, strength: outcome.value.strength, invalid: outcome.value.invalid }),
         h(BrewWeights, { invalid: outcome.value.invalid, dose: outcome.value.result.dose, beverage: outcome.value.result.beverageMass, estimated: outcome.value.result.beverageEstimated }),
-        h(BrewReadings, { summary: outcome.value.readings, kind: outcome.value.strength.kind }),
+        h(BrewReadings, { summary: outcome.value.readings, outlier: outcome.value.outlier, kind: outcome.value.strength.kind }),
         h(BrewResultPanel, { outcome: outcome.value }),
       ])
     },
@@ -92,7 +92,12 @@ describe('the measure form', () => {
     // Dixon's Q for 1.38, 1.52, 1.37, 1.39: 0.867 > 0.829 (Rorabacher 1991, four readings, 95 %).
     for (const value of ['1.38', '1.52', '1.37', '1.39'])
       await addReading(wrapper, value)
-    expect(text(wrapper, 'readings-summary')).toContain('1.52 looks like an outlier')
+    // Left out by default: the mean is of the other three, and one tap keeps it.
+    expect(text(wrapper, 'outlier')).toContain('1.52 is left out of the result as an outlier (Dixon\'s Q 0.87 is above 0.829 at 95 %)')
+    expect(text(wrapper, 'readings-summary')).toBe('Mean 1.380 from 3 readings, spread ± 0.010 (SD).')
+    await wrapper.find('[data-test="keep-outlier"]').trigger('click')
+    expect(text(wrapper, 'outlier')).toContain('1.52 looks like an outlier (Dixon\'s Q 0.87 is above 0.829 at 95 %) but is kept')
+    expect(text(wrapper, 'readings-summary')).toContain('Mean 1.415 from 4 readings')
   })
 })
 
@@ -151,10 +156,10 @@ describe('the measure form\'s LRR and immersion', () => {
 
 describe('stored readings in the form', () => {
   it('are set aside and brought back, never removed, and the mean follows', async () => {
-    const readings = [1.34, 1.35, 1.36, 1.52].map((value, index) => ({ id: `reading-${index}`, value, excluded: false }))
+    // Stored readings come back as they were used (formOfBrew keeps them), outlier or not.
+    const readings = [1.34, 1.35, 1.36, 1.52].map((value, index) => ({ id: `reading-${index}`, value, excluded: false, kept: true }))
     const wrapper = mount(harness(null, { readings, byDifference: false, dose: '15', beverageMass: '240' }), { global: { plugins: [IonicVue] } })
-    expect(text(wrapper, 'readings-summary')).toContain('1.52 looks like an outlier')
-    expect(text(wrapper, 'readings-summary')).toContain('set it aside')
+    expect(text(wrapper, 'outlier')).toContain('1.52 looks like an outlier')
     const chips = () => wrapper.findAll('[data-test="readings"] ion-chip')
     await chips()[3]!.trigger('click')
     expect(chips()).toHaveLength(4)

@@ -19,7 +19,7 @@ function roundTrip(filled: Partial<BrewForm>) {
   const brewedAt = '2026-12-02T07:30:00.000Z'
   // The server parses what the phone sends with the entity's schema; a stored brew is that.
   const stored = entityDataSchemas.brew.parse({ ...brewDataOf(form, outcome.value, gauge.value), brewedAt })
-  const readings = newReadingsOf(form, outcome.value, gauge.value, brewedAt).map((reading, index) => ({ ...entityDataSchemas.reading.parse({ ...reading, brewId: pen.id }), id: readingIds[index]! }))
+  const readings = newReadingsOf(form, outcome.value, gauge.value, brewedAt).map((reading, index) => ({ ...entityDataSchemas.reading.parse({ ...reading.data, brewId: pen.id }), id: readingIds[index]! }))
   return { form, outcome: outcome.value, stored, readings, again: formOfBrew(stored, readings) }
 }
 
