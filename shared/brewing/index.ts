@@ -1,8 +1,10 @@
 // The brewing core: pure calculations shared by the phone and the server. Percent values are
 // percent (1.30 means 1.30 %), masses are grams.
+export * from './batch'
 export * from './brew'
 export * from './brew-uncertainty'
 export * from './calibration'
+export * from './dialin'
 export * from './errors'
 export * from './extraction'
 export * from './mass'

@@ -70,6 +70,9 @@ export const derivedSchemas = {
   recipe: z.null(),
   zone: z.null(),
   zoneDefault: z.null(),
+  recipeVersion: z.null(),
+  houseRecipe: z.null(),
+  dialIn: z.null(),
 } as const satisfies Record<EntityName, z.ZodType>
 
 export type EntityDerived<E extends EntityName> = z.infer<(typeof derivedSchemas)[E]>

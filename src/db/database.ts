@@ -101,6 +101,9 @@ export const tableOf = {
   recipe: 'recipes',
   zone: 'zones',
   zoneDefault: 'zoneDefaults',
+  recipeVersion: 'recipeVersions',
+  houseRecipe: 'houseRecipes',
+  dialIn: 'dialIns',
 } as const satisfies Record<EntityName, string>
 export type RecordTableName = (typeof tableOf)[EntityName]
 
@@ -121,6 +124,9 @@ export class LixiviaDatabase extends Dexie {
   recipes!: RecordTables['recipe']
   zones!: RecordTables['zone']
   zoneDefaults!: RecordTables['zoneDefault']
+  recipeVersions!: RecordTables['recipeVersion']
+  houseRecipes!: RecordTables['houseRecipe']
+  dialIns!: RecordTables['dialIn']
   uploads!: Table<UploadEntry, string>
   /** The record tables by entity, for code that handles any entity. */
   readonly records: RecordTables
@@ -148,6 +154,13 @@ export class LixiviaDatabase extends Dexie {
     this.version(4).stores({ uploads: 'id, teamId, state, createdAt', zoneDefaults: 'id, teamId, sync.state' }).upgrade(async (tx) => {
       await tx.table('meta').where('key').startsWith('cursor:').delete()
     })
+    // Recipe versions, the crew's house marks and dial-in sessions (an attempt is a brew whose
+    // context names its session, so brews need no new index). An older version skipped these
+    // records, and brews whose context names a version or a session, as unreadable: every team is
+    // pulled again from the start (local changes stay).
+    this.version(7).stores({ recipeVersions: 'id, teamId, recipeId, sync.state', houseRecipes: 'id, teamId, sync.state', dialIns: 'id, teamId, recipeId, sync.state' }).upgrade(async (tx) => {
+      await tx.table('meta').where('key').startsWith('cursor:').delete()
+    })
     this.records = {
       instrument: this.instruments,
       calibration: this.calibrations,
@@ -161,6 +174,9 @@ export class LixiviaDatabase extends Dexie {
       recipe: this.recipes,
       zone: this.zones,
       zoneDefault: this.zoneDefaults,
+      recipeVersion: this.recipeVersions,
+      houseRecipe: this.houseRecipes,
+      dialIn: this.dialIns,
     }
   }
 

@@ -1,0 +1,45 @@
+import type { RecipeSettings } from '../../shared/schemas/entities'
+import type { LixiviaDatabase } from '../db/database'
+import { v7 as uuidv7 } from 'uuid'
+import { saveRecord } from './outbox'
+
+/** Who saves, for which team. */
+export interface Saver { teamId: string, userId: string }
+
+export interface VersionSave extends Saver {
+  /** The recipe it changes; a new recipe otherwise. */
+  recipeId?: string
+  settings: RecipeSettings
+  /** Why: it stays with the version. */
+  reason: string
+  /** The dial-in attempt whose numbers these are, when one was adopted. */
+  fromBrewId?: string | null
+}
+
+/**
+ * A recipe's next version and the recipe itself, pointing at it, saved together on the phone and
+ * queued in that order (the server takes a recipe only with the version it names). A new recipe
+ * starts at version 1; a change follows the recipe's current version.
+ * @returns the recipe's and the new version's ids
+ */
+export async function saveRecipeVersion(database: LixiviaDatabase, save: VersionSave): Promise<{ recipeId: string, versionId: string }> {
+  const { teamId, userId } = save
+  return database.transaction('rw', database.recipes, database.recipeVersions, database.outbox, async () => {
+    const recipe = save.recipeId ? await database.recipes.get(save.recipeId) : undefined
+    const current = recipe?.versionId ? await database.recipeVersions.get(recipe.versionId) : undefined
+    // A recipe id is made here for a new recipe, so its first version can name it.
+    const recipeId = recipe?.id ?? uuidv7()
+    const versionId = await saveRecord(database, 'recipeVersion', {
+      teamId,
+      userId,
+      data: { recipeId, number: (current?.number ?? 0) + 1, basedOnId: current?.id ?? null, reason: save.reason.trim(), settings: save.settings, fromBrewId: save.fromBrewId ?? null },
+    })
+    await saveRecord(database, 'recipe', { teamId, userId, id: recipeId, data: { ...save.settings, versionId } })
+    return { recipeId, versionId }
+  })
+}
+
+/** Marks a recipe as the crew's house recipe for its method (a lead or an owner); null clears the mark. */
+export async function markHouseRecipe(database: LixiviaDatabase, saver: Saver, method: RecipeSettings['method'], recipeId: string | null): Promise<void> {
+  await saveRecord(database, 'houseRecipe', { ...saver, data: { method, recipeId } })
+}
