@@ -1,16 +1,20 @@
 import { v7 as uuidv7 } from 'uuid'
 import { brixToRefractiveIndex, defaultBrixFactor } from '../../shared/brewing'
 
-/** A mutation as a phone would push it, for the demo team's first records. */
-interface DemoMutation { mutationId: string, entity: string, op: 'put', id: string, teamId: string, data: Record<string, unknown>, baseRev: null }
+/**
+ * A mutation as a phone would push it, for the demo team's first records. An edit of a record
+ * pushed earlier goes with that record's rev, which the seed fills in as it pushes.
+ */
+interface DemoMutation { mutationId: string, entity: string, op: 'put', id: string, teamId: string, data: Record<string, unknown>, baseRev: number | null }
 
 /**
  * The demo team's records, all invented: two refractometers (one calibrated with sucrose
- * standards), a house recipe, a buying trip with two lots, an event round with three cups, and a
- * week of brews measured against them. Returned per author, in the order they must be pushed.
+ * standards), a recipe with its versions, a buying trip with two lots, an event round with three
+ * cups, a week of brews measured against them, and a dial-in at a night market of five attempts
+ * whose last became the crew's house recipe. Returned per author, in the order they must be pushed.
  */
 export function demoRecords(teamId: string, people: { owner: string, lead: string, member: string }, now = Date.now()): { userId: string, mutations: DemoMutation[] }[] {
-  const put = (entity: string, data: Record<string, unknown>): DemoMutation => ({ mutationId: uuidv7(), entity, op: 'put', id: uuidv7(), teamId, data, baseRev: null })
+  const put = (entity: string, data: Record<string, unknown>, id = uuidv7()): DemoMutation => ({ mutationId: uuidv7(), entity, op: 'put', id, teamId, data, baseRev: null })
   const at = (daysAgo: number, hour: number): string => new Date(Math.floor(now / 86_400_000 - daysAgo) * 86_400_000 + hour * 3_600_000).toISOString()
 
   const prism = put('instrument', { label: 'Quayside prism', readingKind: 'nD', resolution: 0.00001, repeatability: 0.00002, brixFactor: null, notes: 'Bench refractometer with temperature compensation.' })
@@ -18,7 +22,11 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
   // Sucrose standards of 0, 1, 2 and 3 °Brix (the filter range) read close to the ICUMSA table's nD at 20 °C.
   const standards = [[0, 1.33300], [1, 1.33442], [2, 1.33587], [3, 1.33731]].map(([concentration, reading]) => ({ concentration, reading }))
   const line = put('calibration', { instrumentId: prism.id, standardUnit: 'brix', points: standards, zeroReading: 1.33300, temperatureC: 20, active: true, calibratedAt: at(6, 8), notes: 'Fresh standards, mixed by mass.' })
-  const recipe = put('recipe', { name: 'House filter', method: 'percolation', dose: 15, waterMass: 250, targetTdsPercent: 1.3, targetYieldPercent: 20.5, grindSetting: '22 clicks', contactTimeSeconds: 210, waterTemperatureC: 94, notes: 'Paper filter, 40 s bloom.' })
+  // A recipe is its first version's settings; each change is a version of its own (recipe-rules.ts).
+  const houseFilter = { name: 'House filter', method: 'percolation', dose: 15, waterMass: 250, targetTdsPercent: 1.3, targetYieldPercent: 20.5, grindSetting: '22 clicks', contactTimeSeconds: 210, waterTemperatureC: 94, notes: 'Paper filter, 40 s bloom.', beverageMass: 220, retainedRatio: 2, timeToleranceSeconds: null, zoneId: 'european-drip', retired: false }
+  const recipeId = uuidv7()
+  const firstVersion = put('recipeVersion', { recipeId, number: 1, basedOnId: null, reason: 'The crew\'s filter as brewed at the quay', settings: houseFilter })
+  const recipe = put('recipe', { ...houseFilter, versionId: firstVersion.id }, recipeId)
   const trip = put('trip', { name: 'North Terraces buying trip', origin: 'North Terraces', startsOn: at(10, 0).slice(0, 10), endsOn: at(3, 0).slice(0, 10), notes: '' })
   const alder = put('lot', { tripId: trip.id, farm: 'Alder Ridge Estate', region: 'North Terraces', variety: 'Typica', process: 'washed', moisturePercent: 10.8, lotSizeKg: 1380, askingPrice: 7.4, currency: 'EUR', notes: '' })
   const copperbeck = put('lot', { tripId: trip.id, farm: 'Copperbeck Farm', region: 'South Valley', variety: 'Bourbon', process: 'natural', moisturePercent: 11.4, lotSizeKg: 690, askingPrice: 8.1, currency: 'EUR', notes: '' })
@@ -34,8 +42,24 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
   const nD = (tdsPercent: number): number => Math.round(brixToRefractiveIndex(tdsPercent / defaultBrixFactor) * 1e5) / 1e5
   const bowl = (lot: DemoMutation, tds: number[], daysAgo: number) => brew({ context: { kind: 'lot', refId: lot.id }, method: 'immersion', dose: 8.25, waterMass: 150, brixFactor: 0.85, grindSetting: 'cupping', contactTimeSeconds: 240, waterTemperatureC: 93, brewedAt: at(daysAgo, 15) }, tds.map(nD), 'nD', prism, line)
 
+  // The Gullstone Night Market (invented): a new grinder and the market's standpipe water. Five
+  // attempts on the House filter, one change each, until the fifth lands on the target.
+  const market = put('dialIn', { recipeId, method: 'percolation', place: 'Gullstone Night Market, stall 7', grinder: 'Flat-burr grinder, burrs two weeks old', water: 'Market standpipe through a jug filter', zoneId: null, startedAt: at(1, 17), notes: 'Queue from half past five.' })
+  const minutes = (count: number): string => new Date(Date.parse(at(1, 17)) + count * 60_000).toISOString()
+  const attempt = (step: number, change: string, grind: string, temperature: number, beverageMass: number, tds: number[]) => brew({ context: { kind: 'recipe', refId: recipeId, versionId: firstVersion.id, sessionId: market.id }, method: 'percolation', dose: 15, beverageMass, waterMass: 250, grindSetting: grind, contactTimeSeconds: 200 + step * 5, waterTemperatureC: temperature, changeNote: change, notes: '', brewedAt: minutes(step * 8) }, tds, 'tds', pen, null)
+  const attempts = [
+    attempt(1, 'The House filter as written', '22 clicks', 94, 226, [1.18, 1.19, 1.18]),
+    attempt(2, 'Two clicks finer', '20 clicks', 94, 224.5, [1.26, 1.26, 1.27]),
+    attempt(3, 'Two more clicks finer', '18 clicks', 94, 223, [1.33, 1.32, 1.33]),
+    attempt(4, 'Water up to 96 °C', '18 clicks', 96, 222.5, [1.36, 1.36, 1.35]),
+    attempt(5, 'One click finer', '17 clicks', 96, 222, [1.38, 1.38, 1.39]),
+  ]
+  const fifth = attempts[4]![0]!
+  const adopted = { ...houseFilter, grindSetting: '17 clicks', waterTemperatureC: 96, contactTimeSeconds: 225, beverageMass: 222 }
+  const secondVersion = put('recipeVersion', { recipeId, number: 2, basedOnId: firstVersion.id, reason: 'Attempt 5 of the dial-in at Gullstone Night Market: new burrs grind coarser', settings: adopted, fromBrewId: fifth.id })
+
   return [
-    { userId: people.owner, mutations: [prism, pen, line, recipe, trip, alder, copperbeck, event, heat, ...cups] },
+    { userId: people.owner, mutations: [prism, pen, line, firstVersion, recipe, trip, alder, copperbeck, event, heat, ...cups] },
     {
       userId: people.member,
       mutations: [
@@ -57,6 +81,16 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
         ...brew({ method: 'espresso', dose: 18, beverageMass: 38.5, grindSetting: '2.4', contactTimeSeconds: 29, waterTemperatureC: 93, notes: 'Guest espresso', brewedAt: at(2, 14) }, [9.4, 9.5, 9.45], 'tds', pen, null),
         ...brew({ context: { kind: 'entry', refId: cups[0]!.id }, method: 'percolation', doseGross: 28.5, doseTare: 12.5, beverageGross: 662.6, beverageTare: 412.6, notes: '', brewedAt: at(1, 10) }, [1.38, 1.39, 1.38], 'tds', pen, null),
         ...brew({ context: { kind: 'entry', refId: cups[1]!.id }, method: 'percolation', doseGross: 29.0, doseTare: 12.5, beverageGross: 660.6, beverageTare: 412.6, notes: '', brewedAt: at(1, 11) }, [1.28, 1.27, 1.29], 'tds', pen, null),
+      ],
+    },
+    {
+      userId: people.lead,
+      mutations: [
+        market,
+        ...attempts.flat(),
+        secondVersion,
+        put('recipe', { ...adopted, versionId: secondVersion.id }, recipeId),
+        put('houseRecipe', { method: 'percolation', recipeId }),
       ],
     },
   ]

@@ -126,7 +126,7 @@ export function similarBrews(attempt: AttemptFigures, history: readonly AttemptF
   })
 }
 
-function grindStep(attempt: AttemptFigures, history: readonly AttemptFigures[], gap: number): { step: GrindStep | null, noStep: string | null } {
+function grindStep(attempt: AttemptFigures, history: readonly AttemptFigures[], gap: number, whose: string): { step: GrindStep | null, noStep: string | null } {
   const grind = readGrindSetting(attempt.grindSetting)
   if (!grind)
     return { step: null, noStep: 'the grind setting has no number to step from' }
@@ -134,10 +134,10 @@ function grindStep(attempt: AttemptFigures, history: readonly AttemptFigures[], 
   const points = similar.map(brew => ({ x: readGrindSetting(brew.grindSetting)!.value, y: brew.yieldPercent }))
   const settings = new Set(points.map(p => p.x)).size
   if (similar.length < historyNeeded.brews || settings < historyNeeded.settings)
-    return { step: null, noStep: `the team has ${similar.length} similar ${attempt.method} brews at ${settings} grind settings, short of the ${historyNeeded.brews} at ${historyNeeded.settings} or more a grind step needs` }
+    return { step: null, noStep: `${whose} ${similar.length} similar ${attempt.method} brews at ${settings} grind settings are short of the ${historyNeeded.brews} at ${historyNeeded.settings} or more a grind step needs` }
   const fit = fitLine(points)
   if (!fit || fit.slope === 0 || Math.abs(fit.r) < historyNeeded.r)
-    return { step: null, noStep: `the team's ${similar.length} similar brews show no clear link between grind and extraction (r = ${(fit?.r ?? 0).toFixed(2)})` }
+    return { step: null, noStep: `${whose} ${similar.length} similar brews show no clear link between grind and extraction (r = ${(fit?.r ?? 0).toFixed(2)})` }
   // The step at the grinder's own resolution (as its settings are written), at least one notch.
   const decimals = Math.max(grind.decimals, ...similar.map(brew => readGrindSetting(brew.grindSetting)!.decimals))
   const unit = 10 ** -decimals
@@ -173,9 +173,10 @@ const settingText = (value: number, step: GrindStep): string => `${value.toFixed
  * @param attempt - the attempt measured
  * @param target - the recipe's target point and zone
  * @param history - the team's measured brews (the attempt among them or not)
+ * @param historyWords - whose brews they are, for the reasoning: "the team's", "this session's"
  * @throws BrewingInputError for figures it cannot use, or a strength the grounds make impossible (immersion)
  */
-export function suggestNextChange(attempt: AttemptFigures, target: DialInTarget, history: readonly AttemptFigures[]): DialInSuggestion {
+export function suggestNextChange(attempt: AttemptFigures, target: DialInTarget, history: readonly AttemptFigures[], historyWords = 'the team\'s'): DialInSuggestion {
   requireTdsPercent(attempt.tdsPercent)
   requirePositive(attempt.yieldPercent, 'yieldPercent', 'The extraction yield')
   requirePositive(attempt.dose, 'dose', 'The dose')
@@ -191,12 +192,12 @@ export function suggestNextChange(attempt: AttemptFigures, target: DialInTarget,
 
   let extraction: ExtractionMove | null = null
   if (eyPosition !== 'in') {
-    const { step, noStep } = grindStep(attempt, history, gap)
+    const { step, noStep } = grindStep(attempt, history, gap, historyWords)
     extraction = { position: eyPosition, gapPoints: gap, grind: step, noStep }
     const size = `${formatYield(Math.abs(gap))} points`
     if (step) {
       actions.push(`Extract ${size} ${gap > 0 ? 'more' : 'less'}: grind ${gap > 0 ? 'finer' : 'coarser'}, from ${settingText(step.from, step)} to ${settingText(step.to, step)}${step.beyondHistory ? ' (past the settings the team has brewed at: go one step and measure)' : ''}.`)
-      reasons.push(`the team's ${step.brews} similar brews move ${formatYield(Math.abs(step.slope))} points per ${step.unit ? step.unit.replace(/s$/, '') : 'unit'} (r = ${step.r.toFixed(2)})`)
+      reasons.push(`${historyWords} ${step.brews} similar brews move ${formatYield(Math.abs(step.slope))} points per ${step.unit ? step.unit.replace(/s$/, '') : 'unit'} (r = ${step.r.toFixed(2)})`)
     }
     else {
       actions.push(`Extract ${size} ${gap > 0 ? 'more: grind finer, lengthen the contact time, or brew a little hotter' : 'less: grind coarser, shorten the contact time, or brew a little cooler'}; one step at a time.`)

@@ -1,6 +1,8 @@
+import type { BrewResult } from '../../shared/brewing'
 import type { RecipeSettings } from '../../shared/schemas/entities'
-import type { LixiviaDatabase } from '../db/database'
+import type { LixiviaDatabase, LocalRecord } from '../db/database'
 import { v7 as uuidv7 } from 'uuid'
+import { settingsFromAttempt, settingsOf } from '../forms/recipeForm'
 import { saveRecord } from './outbox'
 
 /** Who saves, for which team. */
@@ -42,4 +44,34 @@ export async function saveRecipeVersion(database: LixiviaDatabase, save: Version
 /** Marks a recipe as the crew's house recipe for its method (a lead or an owner); null clears the mark. */
 export async function markHouseRecipe(database: LixiviaDatabase, saver: Saver, method: RecipeSettings['method'], recipeId: string | null): Promise<void> {
   await saveRecord(database, 'houseRecipe', { ...saver, data: { method, recipeId } })
+}
+
+export interface Adoption extends Saver {
+  session: LocalRecord<'dialIn'>
+  brew: LocalRecord<'brew'>
+  /** The attempt's net masses as the core computed them. */
+  masses: Pick<BrewResult, 'dose' | 'beverageMass' | 'retainedRatio'>
+  /** The session's recipe; none for a blank start, which makes a new recipe of this name. */
+  recipe?: LocalRecord<'recipe'>
+  name?: string
+  reason: string
+}
+
+/**
+ * One action turns a dial-in attempt into the recipe's next version: its dose, beverage, water,
+ * grind, time and temperature, with the reason and the attempt it came from. A blank start makes a
+ * new recipe of it (version 1), and the session follows that recipe from then on.
+ * @returns the recipe's and the version's ids
+ */
+export async function adoptAttempt(database: LixiviaDatabase, adoption: Adoption): Promise<{ recipeId: string, versionId: string }> {
+  const { session, brew, recipe, teamId, userId } = adoption
+  const base: RecipeSettings = recipe
+    ? settingsOf(recipe)
+    : { name: adoption.name?.trim() || `Dial-in at ${session.place}`, method: session.method, dose: adoption.masses.dose ?? 1, waterMass: null, beverageMass: null, targetTdsPercent: null, targetYieldPercent: null, grindSetting: '', contactTimeSeconds: null, waterTemperatureC: null, notes: '', retainedRatio: null, timeToleranceSeconds: null, zoneId: session.zoneId, retired: false }
+  return database.transaction('rw', database.recipes, database.recipeVersions, database.dialIns, database.outbox, async () => {
+    const saved = await saveRecipeVersion(database, { teamId, userId, recipeId: recipe?.id, settings: settingsFromAttempt(brew, adoption.masses, base), reason: adoption.reason, fromBrewId: brew.id })
+    if (!recipe)
+      await saveRecord(database, 'dialIn', { teamId, userId, id: session.id, data: { recipeId: saved.recipeId } })
+    return saved
+  })
 }

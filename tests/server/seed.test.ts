@@ -1,3 +1,4 @@
+import type { EntityName } from '../../shared/schemas/entities'
 import type { TestDatabase } from './helpers'
 import { eq, sql } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -24,13 +25,27 @@ describe('seedDemo', () => {
 
   it('writes the demo records through the sync push, so the server derived every brew\'s result', async () => {
     const stored = await database.db.select().from(records).where(eq(records.entity, 'brew'))
-    expect(stored).toHaveLength(8)
+    expect(stored).toHaveLength(13)
     for (const brew of stored) {
       expect(brew.derived!.tdsPercent, JSON.stringify(brew.data)).toEqual(expect.any(Number))
       expect(brew.derived!.yieldPercent).toEqual(expect.any(Number))
     }
     const [row] = await database.db.select({ count: sql<number>`count(*)` }).from(records).where(eq(records.entity, 'reading'))
-    expect(Number(row!.count)).toBe(23)
+    expect(Number(row!.count)).toBe(38)
+  })
+
+  it('ends the night market\'s dial-in of five attempts in the crew\'s house recipe, at the version the fifth became', async () => {
+    const of = async (entity: EntityName) => database.db.select().from(records).where(eq(records.entity, entity))
+    const [session] = await of('dialIn')
+    const attempts = (await of('brew')).filter(brew => (brew.data.context as { sessionId?: string }).sessionId === session!.id)
+    expect(attempts).toHaveLength(5)
+    const [recipe] = await of('recipe')
+    const versions = await of('recipeVersion')
+    const current = versions.find(version => version.id === recipe!.data.versionId)
+    expect(current?.data).toMatchObject({ number: 2, fromBrewId: attempts.find(a => a.data.changeNote === 'One click finer')!.id })
+    expect(recipe!.data).toMatchObject({ grindSetting: '17 clicks', waterTemperatureC: 96 })
+    const [mark] = await of('houseRecipe')
+    expect(mark!.data).toEqual({ method: 'percolation', recipeId: recipe!.id })
   })
 
   it('stores argon2id hashes that verify the printed password', async () => {

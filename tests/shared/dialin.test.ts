@@ -47,7 +47,7 @@ describe('suggestNextChange', () => {
 
   it('says when the team\'s history is too thin to size a grind step, and still gives the direction', () => {
     const next = suggestNextChange(pour('24 clicks', 19.5, { tdsPercent: 1.3 }), target, history.slice(0, 2))
-    expect(next.extraction).toMatchObject({ grind: null, noStep: 'the team has 2 similar percolation brews at 2 grind settings, short of the 4 at 2 or more a grind step needs' })
+    expect(next.extraction).toMatchObject({ grind: null, noStep: 'the team\'s 2 similar percolation brews at 2 grind settings are short of the 4 at 2 or more a grind step needs' })
     expect(next.actions[0]).toBe('Extract 1.0 points more: grind finer, lengthen the contact time, or brew a little hotter; one step at a time.')
     expect(next.reasoning).toContain('no grind step sized')
   })
