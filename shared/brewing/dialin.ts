@@ -196,11 +196,11 @@ export function suggestNextChange(attempt: AttemptFigures, target: DialInTarget,
     extraction = { position: eyPosition, gapPoints: gap, grind: step, noStep }
     const size = `${formatYield(Math.abs(gap))} points`
     if (step) {
-      actions.push(`Extract ${size} ${gap > 0 ? 'more' : 'less'}: grind ${gap > 0 ? 'finer' : 'coarser'}, from ${settingText(step.from, step)} to ${settingText(step.to, step)}${step.beyondHistory ? ' (past the settings the team has brewed at: go one step and measure)' : ''}.`)
+      actions.push(`${gap > 0 ? 'Raise' : 'Lower'} the extraction ${size}: grind ${gap > 0 ? 'finer' : 'coarser'}, from ${settingText(step.from, step)} to ${settingText(step.to, step)}${step.beyondHistory ? ' (past the settings the team has brewed at: go one step and measure)' : ''}.`)
       reasons.push(`${historyWords} ${step.brews} similar brews move ${formatYield(Math.abs(step.slope))} points per ${step.unit ? step.unit.replace(/s$/, '') : 'unit'} (r = ${step.r.toFixed(2)})`)
     }
     else {
-      actions.push(`Extract ${size} ${gap > 0 ? 'more: grind finer, lengthen the contact time, or brew a little hotter' : 'less: grind coarser, shorten the contact time, or brew a little cooler'}; one step at a time.`)
+      actions.push(`${gap > 0 ? 'Raise the extraction' : 'Lower the extraction'} ${size}: ${gap > 0 ? 'grind finer, lengthen the contact time, or brew a little hotter' : 'grind coarser, shorten the contact time, or brew a little cooler'}; one step at a time.`)
       reasons.push(`no grind step sized: ${noStep}`)
     }
   }

@@ -111,9 +111,9 @@ export function zoneVerdict(zone: Zone, measured: { tdsPercent: number, yieldPer
 
   const adjustments: string[] = []
   if (extraction === 'low')
-    adjustments.push(`Extract ${gapWords} more: grind finer, lengthen the contact time, or brew a little hotter.`)
+    adjustments.push(`Raise the extraction ${gapWords}: grind finer, lengthen the contact time, or brew a little hotter.`)
   else if (extraction === 'high')
-    adjustments.push(`Extract ${gapWords} less: grind coarser, shorten the contact time, or brew a little cooler.`)
+    adjustments.push(`Lower the extraction ${gapWords}: grind coarser, shorten the contact time, or brew a little cooler.`)
   if (strength === 'low')
     adjustments.push(`Make it stronger with less beverage per gram of coffee: ${ratios}.`)
   else if (strength === 'high')

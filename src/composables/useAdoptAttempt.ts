@@ -21,9 +21,11 @@ export function useAdoptAttempt() {
   }
 
   async function adopt(dialIn: LocalRecord<'dialIn'>, attempt: Attempt, recipe: LocalRecord<'recipe'> | undefined): Promise<void> {
+    // Alert fields have no visible label: each placeholder says what it is and what a blank gives.
+    const defaults = { name: `${dialIn.place} ${dialIn.method}`, reason: `Attempt ${attempt.number} of the dial-in at ${dialIn.place}` }
     const inputs = [
-      ...(recipe ? [] : [{ name: 'name', type: 'text' as const, placeholder: 'Recipe name', value: `${dialIn.place} ${dialIn.method}`, attributes: { 'aria-label': 'Recipe name', 'maxlength': 120 } }]),
-      { name: 'reason', type: 'text' as const, placeholder: 'Why', value: `Attempt ${attempt.number} of the dial-in at ${dialIn.place}`, attributes: { 'aria-label': 'Why', 'maxlength': 300 } },
+      ...(recipe ? [] : [{ name: 'name', type: 'text' as const, placeholder: `Recipe name (blank: ${defaults.name})`, attributes: { 'aria-label': 'Recipe name', 'maxlength': 120 } }]),
+      { name: 'reason', type: 'text' as const, placeholder: `Why (blank: ${defaults.reason})`, attributes: { 'aria-label': 'Why', 'maxlength': 300 } },
     ]
     await presentAlert({
       header: recipe ? `Adopt attempt ${attempt.number} into “${recipe.name}”?` : `Make attempt ${attempt.number} a recipe?`,
@@ -32,10 +34,9 @@ export function useAdoptAttempt() {
       buttons: [
         { text: 'Cancel', role: 'cancel' },
         { text: 'Adopt', handler: (values: { name?: string, reason?: string }) => {
-          const reason = values.reason?.trim()
-          if (!reason || (!recipe && !values.name?.trim()))
-            return false
-          void adoptAttempt(db, { teamId: dialIn.teamId, userId: session.user!.id, session: dialIn, brew: attempt.brew, masses: attempt.masses, recipe, name: values.name, reason })
+          const reason = values.reason?.trim() || defaults.reason
+          const name = values.name?.trim() || defaults.name
+          void adoptAttempt(db, { teamId: dialIn.teamId, userId: session.user!.id, session: dialIn, brew: attempt.brew, masses: attempt.masses, recipe, name, reason })
             .then(async ({ versionId }) => {
               const version = await db.recipeVersions.get(versionId)
               await presentToast({ message: `Attempt ${attempt.number} is now version ${version?.number ?? 1} of “${version?.settings.name ?? ''}”.`, duration: 3000, position: 'top' })

@@ -4,7 +4,7 @@ import type { BrewContext } from '../../shared/schemas/entities'
 import type { LocalRecord } from '../db/database'
 import type { JudgedZone } from './brewContexts'
 import { computed } from 'vue'
-import { BrewingInputError, computeBrew, suggestNextChange, zoneVerdict } from '../../shared/brewing'
+import { BrewingInputError, computeBrew, formatTds, formatYield, suggestNextChange, zoneVerdict } from '../../shared/brewing'
 import { brewInputOf } from '../../shared/records/brew-input'
 import { db } from '../db/database'
 import { brewsNewestFirst } from '../db/queries'
@@ -62,6 +62,12 @@ export function useDialIn(sessionId: Ref<string>, teamId: Ref<string | null>) {
     return { tdsPercent: recipe.value?.targetTdsPercent ?? middle(zone.tdsPercent), yieldPercent: recipe.value?.targetYieldPercent ?? middle(zone.yieldPercent), zone }
   })
 
+  /** The target in words: "1.30 %TDS at 20.5 % EY", and where it comes from. */
+  const targetWords = computed(() => {
+    const own = recipe.value?.targetTdsPercent != null && recipe.value.targetYieldPercent != null
+    return `${formatTds(target.value.tdsPercent)} %TDS at ${formatYield(target.value.yieldPercent)} % EY${own ? '' : ' (the middle of the zone where the recipe names none)'}`
+  })
+
   const attempts = computed<Attempt[]>(() => rows.value.brews
     .filter(brew => brew.context.sessionId === sessionId.value)
     .sort((a, b) => a.brewedAt.localeCompare(b.brewedAt) || a.createdAt.localeCompare(b.createdAt))
@@ -92,5 +98,5 @@ export function useDialIn(sessionId: Ref<string>, teamId: Ref<string | null>) {
     }
   }
 
-  return { state, session, recipe, version, nextContext, judged, target, attempts, suggestionFor, contexts }
+  return { state, session, recipe, version, nextContext, judged, target, targetWords, attempts, suggestionFor, contexts }
 }

@@ -130,7 +130,7 @@ export function settingsFromAttempt(brew: EntityData<'brew'>, result: Pick<BrewR
   let masses: Pick<RecipeSettings, 'waterMass' | 'beverageMass'>
   if (base.method === 'espresso')
     masses = { waterMass: null, beverageMass: beverage ?? base.beverageMass }
-  else if (brew.waterMass !== null)
+  else if (brew.waterMass != null)
     masses = { waterMass: brew.waterMass, beverageMass: base.method === 'immersion' ? round(brew.waterMass - lrr * dose) : beverage }
   else
     masses = { waterMass: beverage !== null ? round(beverage + lrr * dose) : base.waterMass, beverageMass: beverage }

@@ -36,7 +36,9 @@ export async function saveRecipeVersion(database: LixiviaDatabase, save: Version
       userId,
       data: { recipeId, number: (current?.number ?? 0) + 1, basedOnId: current?.id ?? null, reason: save.reason.trim(), settings: save.settings, fromBrewId: save.fromBrewId ?? null },
     })
-    await saveRecord(database, 'recipe', { teamId, userId, id: recipeId, data: { ...save.settings, versionId } })
+    // The recipe's change goes behind its version (a queued create of it stays where it is, ahead
+    // of the brews that name it).
+    await saveRecord(database, 'recipe', { teamId, userId, id: recipeId, data: { ...save.settings, versionId }, ownMutation: true })
     return { recipeId, versionId }
   })
 }
@@ -70,8 +72,9 @@ export async function adoptAttempt(database: LixiviaDatabase, adoption: Adoption
     : { name: adoption.name?.trim() || `Dial-in at ${session.place}`, method: session.method, dose: adoption.masses.dose ?? 1, waterMass: null, beverageMass: null, targetTdsPercent: null, targetYieldPercent: null, grindSetting: '', contactTimeSeconds: null, waterTemperatureC: null, notes: '', retainedRatio: null, timeToleranceSeconds: null, zoneId: session.zoneId, retired: false }
   return database.transaction('rw', database.recipes, database.recipeVersions, database.dialIns, database.outbox, async () => {
     const saved = await saveRecipeVersion(database, { teamId, userId, recipeId: recipe?.id, settings: settingsFromAttempt(brew, adoption.masses, base), reason: adoption.reason, fromBrewId: brew.id })
+    // Behind the new recipe, and behind the attempts that name the session as it was.
     if (!recipe)
-      await saveRecord(database, 'dialIn', { teamId, userId, id: session.id, data: { recipeId: saved.recipeId } })
+      await saveRecord(database, 'dialIn', { teamId, userId, id: session.id, data: { recipeId: saved.recipeId }, ownMutation: true })
     return saved
   })
 }

@@ -39,7 +39,7 @@ describe('suggestNextChange', () => {
     expect(next.strength!.waterMass).toBeCloseTo(255, 10)
     expect(next.strength!.dose).toBeCloseTo(15.6, 10)
     expect(next.actions).toEqual([
-      'Extract 1.0 points more: grind finer, from 24 clicks to 22 clicks.',
+      'Raise the extraction 1.0 points: grind finer, from 24 clicks to 22 clicks.',
       'For 1.30 %TDS at 19.5 % EY: pour 255.0 g of water on 15.0 g (225.0 g of beverage), or dose 15.6 g for the same beverage.',
     ])
     expect(next.reasoning).toBe('Landed at 1.25 %TDS and 19.5 % EY against a target of 1.30 %TDS and 20.5 %; the team\'s 4 similar brews move 0.5 points per click (r = -1.00); the recipe solver puts 1.30 %TDS at 19.5 % EY at 225.0 g of beverage per 15.0 g; change the extraction first: it moves the strength too.')
@@ -48,7 +48,7 @@ describe('suggestNextChange', () => {
   it('says when the team\'s history is too thin to size a grind step, and still gives the direction', () => {
     const next = suggestNextChange(pour('24 clicks', 19.5, { tdsPercent: 1.3 }), target, history.slice(0, 2))
     expect(next.extraction).toMatchObject({ grind: null, noStep: 'the team\'s 2 similar percolation brews at 2 grind settings are short of the 4 at 2 or more a grind step needs' })
-    expect(next.actions[0]).toBe('Extract 1.0 points more: grind finer, lengthen the contact time, or brew a little hotter; one step at a time.')
+    expect(next.actions[0]).toBe('Raise the extraction 1.0 points: grind finer, lengthen the contact time, or brew a little hotter; one step at a time.')
     expect(next.reasoning).toContain('no grind step sized')
   })
 

@@ -40,7 +40,7 @@ describe('zoneVerdict', () => {
     // The middle of 18–22 % is 20.0 %; 20.0 − 16.8 = 3.2 points.
     const verdict = zoneVerdict(us, { tdsPercent: 1.25, yieldPercent: 16.8 })
     expect(verdict.yieldGap).toBeCloseTo(3.2, 10)
-    expect(verdict.adjustments[0]).toMatch(/^Extract about 3\.2 points \(from 16\.8 % to 20\.0 %, the middle of the zone\) more/)
+    expect(verdict.adjustments[0]).toMatch(/^Raise the extraction about 3\.2 points \(from 16\.8 % to 20\.0 %, the middle of the zone\): grind finer/)
   })
 
   it('tells an over-extracted brew to grind coarser, brew shorter or cooler', () => {
