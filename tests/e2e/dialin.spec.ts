@@ -189,7 +189,7 @@ describe('the same house recipe on a second phone', () => {
     await screenshot(other, 'dialin-second-phone-field')
   })
 
-  it('offers it first on the Bench, and the session it came from', async () => {
+  it('offers it first on the Bench', async () => {
     await other.locator('#tab-button-bench').click()
     await onScreen(other, 'change-context').click()
     const first = other.locator('[data-test="context-choices"] ion-item').first()
@@ -197,6 +197,24 @@ describe('the same house recipe on a second phone', () => {
     await screenshot(other, 'dialin-second-phone-picker')
     await first.click()
     await expect.poll(() => onScreen(other, 'context-title').innerText()).toBe(`Recipe: ${recipeName} v1`)
+  })
+
+  it('never uses the recipe\'s hidden water once the Bench switches to espresso: 18 g → 36 g is 1:2.0', async () => {
+    // The house recipe filled in 259 g of water; an espresso hides the field and must not use it
+    // (it once gave 259 / 18 = 1:14.4). EY = 10.00 × 36 / 18 = 20.0 % (handbook worked espresso).
+    expect(await onScreen(other, 'water').locator('input').inputValue()).toBe('259')
+    await onScreen(other, 'method').locator('ion-segment-button', { hasText: 'Espresso' }).click()
+    await onScreen(other, 'by-difference').click()
+    await fillField(other, 'dose', '18')
+    await fillField(other, 'beverage', '36')
+    await addReading(other, '10')
+    await expect.poll(() => onScreen(other, 'ratio').innerText()).toBe('Brew ratio 1:2.0 (grams of beverage per gram of coffee)')
+    expect(await onScreen(other, 'ey').innerText()).toBe('20.0')
+    await onScreen(other, 'result').scrollIntoViewIfNeeded()
+    await screenshot(other, 'dialin-second-phone-espresso-ratio')
+  })
+
+  it('shows the session it came from, with its four attempts', async () => {
     await other.goto(sessionPath)
     await expect.poll(() => onScreen(other, 'attempt-table').locator('tbody tr').count(), { timeout: 20_000 }).toBe(4)
   })
