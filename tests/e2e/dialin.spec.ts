@@ -157,6 +157,32 @@ describe('dialling in at an event, offline', () => {
     await shot('batch')
   })
 
+  it('copies the recipe, changes the copy with a reason and retires it, all offline', async () => {
+    await onScreen(page, 'recipe-copy').click()
+    await expect.poll(() => onScreen(page, 'recipe-name').locator('input').inputValue()).toBe(`${recipeName} (copy)`)
+    await fillField(page, 'recipe-name', 'Lantern Fair iced base')
+    await onScreen(page, 'recipe-save').click()
+    await expect.poll(() => onScreen(page, 'recipe-summary').innerText()).toContain('Lantern Fair iced base · version 1')
+    expect(await onScreen(page, 'recipe-versions').innerText()).toContain(`Copied from “${recipeName}” version 1`)
+    await onScreen(page, 'recipe-edit').click()
+    await fillField(page, 'recipe-grind', '20 clicks')
+    await onScreen(page, 'recipe-save').click()
+    // A change needs its reason, named beside the field.
+    await onScreen(page, 'recipe-reason').getByText('Say why you change it').waitFor()
+    await fillField(page, 'recipe-reason', 'Finer for a stronger base over ice')
+    await onScreen(page, 'recipe-form').scrollIntoViewIfNeeded()
+    await shot('edit')
+    await onScreen(page, 'recipe-save').click()
+    await expect.poll(() => onScreen(page, 'recipe-summary').innerText()).toContain('Lantern Fair iced base · version 2')
+    expect(await onScreen(page, 'recipe-versions').innerText()).toContain('grind 22 clicks → 20 clicks')
+    await onScreen(page, 'recipe-retire').click()
+    const alert = page.locator('ion-alert')
+    await alert.locator('input').fill('Only for the summer fair')
+    await alert.getByRole('button', { name: 'Retire' }).click()
+    await expect.poll(() => onScreen(page, 'recipe-summary').innerText()).toContain('Retired')
+    expect(await onScreen(page, 'recipe-versions').innerText()).toContain('Version 3 · current')
+  })
+
   it('sends it all when signal returns', async () => {
     await context.setOffline(false)
     const versions = onScreen(page, 'recipe-versions')
