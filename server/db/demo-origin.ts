@@ -2,7 +2,7 @@ import { defaultScoreSheet } from '../../shared/brewing'
 import { scoreIdOf } from '../../shared/records/rules'
 
 /** A mutation as a phone would push it (demo-records.ts makes them). */
-export interface DemoMutation { mutationId: string, entity: string, op: 'put', id: string, teamId: string, data: Record<string, unknown>, baseRev: null }
+export interface DemoMutation { mutationId: string, entity: string, op: 'put', id: string, teamId: string, data: Record<string, unknown>, baseRev: number | null }
 type Put = (entity: string, data: Record<string, unknown>, id?: string) => DemoMutation
 type Bowl = (lot: DemoMutation, table: DemoMutation, tdsPercent: number, brewedAt: string) => DemoMutation[]
 

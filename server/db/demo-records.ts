@@ -5,9 +5,11 @@ import { demoOrigin } from './demo-origin'
 
 /**
  * The demo team's records, all invented: two refractometers (one calibrated with sucrose
- * standards), a house recipe, a buying trip with four lots cupped on a table (demo-origin.ts), an
- * event round with three cups, and a week of brews measured against them. Returned per author, in
- * the order they must be pushed, with the photos whose pictures the seed stores.
+ * standards), a recipe with its versions, a buying trip with four lots cupped on a table
+ * (demo-origin.ts), an event round with three cups, a week of brews measured against them, and a
+ * dial-in at a night market of five attempts whose last became the crew's house recipe. Returned
+ * per author, in the order they must be pushed, with the photos whose pictures the seed stores. An
+ * edit of a record pushed earlier goes with that record's rev, which the seed fills in as it pushes.
  */
 export function demoRecords(teamId: string, people: { owner: string, lead: string, member: string }, now = Date.now()): { userId: string, mutations: DemoMutation[], photos?: DemoPhoto[] }[] {
   const put = (entity: string, data: Record<string, unknown>, id = uuidv7()): DemoMutation => ({ mutationId: uuidv7(), entity, op: 'put', id, teamId, data, baseRev: null })
@@ -18,7 +20,11 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
   // Sucrose standards of 0, 1, 2 and 3 °Brix (the filter range) read close to the ICUMSA table's nD at 20 °C.
   const standards = [[0, 1.33300], [1, 1.33442], [2, 1.33587], [3, 1.33731]].map(([concentration, reading]) => ({ concentration, reading }))
   const line = put('calibration', { instrumentId: prism.id, standardUnit: 'brix', points: standards, zeroReading: 1.33300, temperatureC: 20, active: true, calibratedAt: at(6, 8), notes: 'Fresh standards, mixed by mass.' })
-  const recipe = put('recipe', { name: 'House filter', method: 'percolation', dose: 15, waterMass: 250, targetTdsPercent: 1.3, targetYieldPercent: 20.5, grindSetting: '22 clicks', contactTimeSeconds: 210, waterTemperatureC: 94, notes: 'Paper filter, 40 s bloom.' })
+  // A recipe is its first version's settings; each change is a version of its own (recipe-rules.ts).
+  const houseFilter = { name: 'House filter', method: 'percolation', dose: 15, waterMass: 250, targetTdsPercent: 1.3, targetYieldPercent: 20.5, grindSetting: '22 clicks', contactTimeSeconds: 210, waterTemperatureC: 94, notes: 'Paper filter, 40 s bloom.', beverageMass: 220, retainedRatio: 2, timeToleranceSeconds: null, zoneId: 'european-drip', retired: false }
+  const recipeId = uuidv7()
+  const firstVersion = put('recipeVersion', { recipeId, number: 1, basedOnId: null, reason: 'The crew\'s filter as brewed at the quay', settings: houseFilter })
+  const recipe = put('recipe', { ...houseFilter, versionId: firstVersion.id }, recipeId)
   const event = put('event', { name: 'Kestrel Quay Brewers Open', venue: 'Net Loft Hall', startsOn: at(1, 0).slice(0, 10), endsOn: at(1, 0).slice(0, 10), zoneId: 'european-drip' })
   const heat = put('round', { eventId: event.id, name: 'Heat 1', position: 1, toleranceTdsPercent: 0.1, toleranceYieldPercent: 1 })
   const cups = ['K1', 'K2', 'K3'].map(code => put('entry', { roundId: heat.id, code, contestant: '', notes: '' }))
@@ -32,8 +38,24 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
   const bowl = (lot: DemoMutation, table: DemoMutation, tds: number, brewedAt: string) => brew({ context: { kind: 'lot', refId: lot.id, tableId: table.id }, method: 'immersion', dose: 8.25, waterMass: 150, brixFactor: 0.85, grindSetting: 'Bench grinder, setting 9', contactTimeSeconds: null, waterTemperatureC: 93, brewedAt }, [nD(tds), nD(tds) + 0.00001], 'nD', prism, line)
   const origin = demoOrigin({ put, bowl, at, people })
 
+  // The Gullstone Night Market (invented): a new grinder and the market's standpipe water. Five
+  // attempts on the House filter, one change each, until the fifth lands on the target.
+  const market = put('dialIn', { recipeId, method: 'percolation', place: 'Gullstone Night Market, stall 7', grinder: 'Flat-burr grinder, burrs two weeks old', water: 'Market standpipe through a jug filter', zoneId: null, startedAt: at(1, 17), notes: 'Queue from half past five.' })
+  const minutes = (count: number): string => new Date(Date.parse(at(1, 17)) + count * 60_000).toISOString()
+  const attempt = (step: number, change: string, grind: string, temperature: number, beverageMass: number, tds: number[]) => brew({ context: { kind: 'recipe', refId: recipeId, versionId: firstVersion.id, sessionId: market.id }, method: 'percolation', dose: 15, beverageMass, waterMass: 250, grindSetting: grind, contactTimeSeconds: 200 + step * 5, waterTemperatureC: temperature, changeNote: change, notes: '', brewedAt: minutes(step * 8) }, tds, 'tds', pen, null)
+  const attempts = [
+    attempt(1, 'The House filter as written', '22 clicks', 94, 226, [1.18, 1.19, 1.18]),
+    attempt(2, 'Two clicks finer', '20 clicks', 94, 224.5, [1.26, 1.26, 1.27]),
+    attempt(3, 'Two more clicks finer', '18 clicks', 94, 223, [1.33, 1.32, 1.33]),
+    attempt(4, 'Water up to 96 °C', '18 clicks', 96, 222.5, [1.36, 1.36, 1.35]),
+    attempt(5, 'One click finer', '17 clicks', 96, 222, [1.38, 1.38, 1.39]),
+  ]
+  const fifth = attempts[4]![0]!
+  const adopted = { ...houseFilter, grindSetting: '17 clicks', waterTemperatureC: 96, contactTimeSeconds: 225, beverageMass: 222 }
+  const secondVersion = put('recipeVersion', { recipeId, number: 2, basedOnId: firstVersion.id, reason: 'Attempt 5 of the dial-in at Gullstone Night Market: new burrs grind coarser', settings: adopted, fromBrewId: fifth.id })
+
   return [
-    { userId: people.owner, mutations: [prism, pen, line, recipe, ...origin.setup, event, heat, ...cups] },
+    { userId: people.owner, mutations: [prism, pen, line, firstVersion, recipe, ...origin.setup, event, heat, ...cups] },
     {
       userId: people.member,
       mutations: [
@@ -55,6 +77,16 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
         ...brew({ method: 'espresso', dose: 18, beverageMass: 38.5, grindSetting: '2.4', contactTimeSeconds: 29, waterTemperatureC: 93, notes: 'Guest espresso', brewedAt: at(2, 14) }, [9.4, 9.5, 9.45], 'tds', pen, null),
         ...brew({ context: { kind: 'entry', refId: cups[0]!.id }, method: 'percolation', doseGross: 28.5, doseTare: 12.5, beverageGross: 662.6, beverageTare: 412.6, notes: '', brewedAt: at(1, 10) }, [1.38, 1.39, 1.38], 'tds', pen, null),
         ...brew({ context: { kind: 'entry', refId: cups[1]!.id }, method: 'percolation', doseGross: 29.0, doseTare: 12.5, beverageGross: 660.6, beverageTare: 412.6, notes: '', brewedAt: at(1, 11) }, [1.28, 1.27, 1.29], 'tds', pen, null),
+      ],
+    },
+    {
+      userId: people.lead,
+      mutations: [
+        market,
+        ...attempts.flat(),
+        secondVersion,
+        put('recipe', { ...adopted, versionId: secondVersion.id }, recipeId),
+        put('houseRecipe', { method: 'percolation', recipeId }),
       ],
     },
   ]

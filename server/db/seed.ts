@@ -44,11 +44,14 @@ export async function seedDemo(db: Db, files?: FileStorage): Promise<boolean> {
     }
   })
   const sync = createSyncService({ db, teams: createTeamsService(db) })
+  // An edit of a record pushed earlier goes with its rev, as a phone's would.
+  const revs = new Map<string, number>()
   for (const { userId, mutations, photos = [] } of demoRecords(teamId, ids)) {
-    const { results } = await sync.push(userId, { clientId: uuidv7(), mutations })
+    const { results } = await sync.push(userId, { clientId: uuidv7(), mutations: mutations.map(m => ({ ...m, baseRev: revs.get(m.id) ?? m.baseRev })) })
     const refused = results.find(result => result.status !== 'applied')
     if (refused)
       throw new Error(`The demo data was refused: ${refused.reason ?? refused.status}`)
+    results.forEach((result, index) => revs.set(mutations[index]!.id, result.rev!))
     for (const photo of files ? photos : [])
       await files!.put(fileKey(teamId, photo.id), await readFile(new URL(`./demo-photos/${photo.file}`, import.meta.url)), 'image/jpeg')
   }

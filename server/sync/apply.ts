@@ -6,6 +6,7 @@ import type { Mutation, MutationResult } from '../../shared/schemas/sync'
 import type { Touch } from './derive'
 import type { RecordBatch, RecordRow } from './store'
 import { BrewingInputError } from '../../shared/brewing'
+import { recipeRefusal } from '../../shared/records/recipe-rules'
 import { definitionOf } from '../../shared/records/registry'
 import { frozenMessage, identityRefusal, refusalOf, roundIdOf } from '../../shared/records/rules'
 import { entityDataSchemas } from '../../shared/schemas/entities'
@@ -116,6 +117,13 @@ export async function applyMutation(ctx: ApplyContext, m: Mutation): Promise<Mut
     if (!parent || parent.teamId !== m.teamId || parent.deletedAt)
       return rejected(`The ${definitionOf(link.entity).noun.one} this record belongs to is not on the server.`)
   }
+  const inTeam: RecordLookup = async (entity, id) => {
+    const row = await batch.find(entity, id)
+    return row && row.teamId === m.teamId && !row.deletedAt ? row : undefined
+  }
+  const inconsistent = await recipeRefusal(m.entity, m.id, data, current?.data as EntityData<EntityName> | undefined, inTeam)
+  if (inconsistent)
+    return rejected(inconsistent)
   if (await frozen(batch, m.entity, m.id, fields, ...(current ? [current.data] : [])))
     return rejected(frozenMessage)
 

@@ -1,9 +1,11 @@
 // The brewing core: pure calculations shared by the phone and the server. Percent values are
 // percent (1.30 means 1.30 %), masses are grams.
+export * from './batch'
 export * from './brew'
 export * from './brew-uncertainty'
 export * from './calibration'
 export * from './cupping'
+export * from './dialin'
 export * from './errors'
 export * from './extraction'
 export * from './mass'

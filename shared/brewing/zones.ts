@@ -1,4 +1,5 @@
 import { BrewingInputError, requireFinite, requirePositive, requireTdsPercent } from './errors'
+import { formatRatio } from './ratio'
 import { formatTds, formatYield, roundHalfUp } from './rounding'
 
 export interface Range { min: number, max: number }
@@ -84,8 +85,10 @@ export interface ZoneVerdict {
   inZone: boolean
   /** A few words for the result panel, e.g. "Under-extracted and weak". */
   headline: string
-  /** What to change, extraction first (it moves strength too), then the ratio. */
+  /** What to change, with its size: extraction first (it moves strength too), then the ratio. */
   adjustments: string[]
+  /** Extraction points to gain (+) or lose (−) to reach the middle of the zone's extraction range. */
+  yieldGap: number
   /**
    * Grams of beverage per gram of coffee now, and the one that would land in the middle of the
    * zone's strength at the current extraction (strength = EY / ratio).
@@ -127,24 +130,29 @@ export function zoneVerdict(zone: Zone, measured: { tdsPercent: number, yieldPer
   const targetTds = (zone.tdsPercent.min + zone.tdsPercent.max) / 2
   const beverageRatio = { current: ey / tds, target: ey / targetTds }
   const inZone = strength === 'in' && extraction === 'in'
+  const targetEy = (zone.yieldPercent.min + zone.yieldPercent.max) / 2
+  const yieldGap = targetEy - ey
+  // A cupping bowl is read, never adjusted: no brewing advice for it.
   if (zone.purpose === 'cupping')
-    return { strength, extraction, inZone, headline: cuppingHeadlines[extraction][strength], adjustments: [cuppingNote], beverageRatio }
+    return { strength, extraction, inZone, headline: cuppingHeadlines[extraction][strength], adjustments: [cuppingNote], yieldGap, beverageRatio }
+  const gapWords = `about ${formatYield(Math.abs(yieldGap))} points (from ${formatYield(ey)} % to ${formatYield(targetEy)} %, the middle of the zone)`
+  const ratios = `brew ratio about ${formatRatio(beverageRatio.target)} instead of ${formatRatio(beverageRatio.current)} (grams of beverage per gram of coffee)`
 
   const adjustments: string[] = []
   if (extraction === 'low')
-    adjustments.push('Extract more: grind finer, lengthen the contact time, or brew a little hotter.')
+    adjustments.push(`Raise the extraction ${gapWords}: grind finer, lengthen the contact time, or brew a little hotter.`)
   else if (extraction === 'high')
-    adjustments.push('Extract less: grind coarser, shorten the contact time, or brew a little cooler.')
+    adjustments.push(`Lower the extraction ${gapWords}: grind coarser, shorten the contact time, or brew a little cooler.`)
   if (strength === 'low')
-    adjustments.push(`Make it stronger with less water per gram of coffee: about ${beverageRatio.target.toFixed(1)} g of beverage per gram instead of ${beverageRatio.current.toFixed(1)}.`)
+    adjustments.push(`Make it stronger with less beverage per gram of coffee: ${ratios}.`)
   else if (strength === 'high')
-    adjustments.push(`Make it weaker with more water per gram of coffee: about ${beverageRatio.target.toFixed(1)} g of beverage per gram instead of ${beverageRatio.current.toFixed(1)}, or add water after brewing.`)
+    adjustments.push(`Make it weaker with more beverage per gram of coffee: ${ratios}, or add water after brewing.`)
   if (adjustments.length === 0)
     adjustments.push('Keep this recipe: strength and extraction are both inside the zone.')
   else if (extraction !== 'in' && strength !== 'in')
     adjustments.push('Change the extraction first and measure again: it moves the strength too.')
 
-  return { strength, extraction, inZone, headline: headlines[extraction][strength], adjustments, beverageRatio }
+  return { strength, extraction, inZone, headline: headlines[extraction][strength], adjustments, yieldGap, beverageRatio }
 }
 
 /** A zone's ranges as a person reads them, at display precision: "1.15–1.35 %TDS · 18.0–22.0 % EY". */

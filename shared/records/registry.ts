@@ -19,6 +19,8 @@ export interface EntityDefinition<E extends EntityName> {
    * reading is part of its brew: adding one changes the brew's result).
    */
   governedBy: 'self' | 'parent'
+  /** What a record governed by its parent is part of, for messages ("brews"); brews when not given. */
+  partOf?: string
   /** A teammate's record is changed only with a reason, which its history keeps. */
   reasonForTeammate: boolean
   /** The record this one belongs to (kept in an indexed column on the server). */
@@ -45,7 +47,7 @@ export const entities: Definitions = {
     title: data => `${data.method.charAt(0).toUpperCase()}${data.method.slice(1)} brew of ${data.brewedAt.slice(0, 10)}`,
     reasonForTeammate: true,
     parent: data => contextRef(data.context),
-    links: data => [contextRef(data.context), ref('calibration', data.calibrationId), data.context.kind === 'lot' ? ref('cuppingTable', data.context.tableId) : null].filter(r => r !== null),
+    links: data => [contextRef(data.context), ref('calibration', data.calibrationId), data.context.kind === 'lot' ? ref('cuppingTable', data.context.tableId) : null, ref('recipeVersion', data.context.versionId), ref('dialIn', data.context.sessionId)].filter(r => r !== null),
   },
   reading: { ...child<'reading'>(data => ref('brew', data.brewId)), ...noun('reading'), title: data => `Reading ${data.value}`, appendOnly: true, governedBy: 'parent', reasonForTeammate: true },
   event: { ...standalone, ...noun('event'), title: data => data.name },
@@ -53,7 +55,7 @@ export const entities: Definitions = {
   entry: { ...child<'entry'>(data => ref('round', data.roundId)), ...noun('cup'), title: data => `Cup ${data.code}` },
   trip: { ...standalone, ...noun('trip'), title: data => data.name },
   lot: { ...child<'lot'>(data => ref('trip', data.tripId)), ...noun('lot'), title: data => data.farm },
-  recipe: { ...standalone, ...noun('recipe'), title: data => data.name },
+  recipe: { ...standalone, ...noun('recipe'), title: data => data.name, links: data => [ref('recipeVersion', data.versionId)].filter(r => r !== null) },
   zone: { ...standalone, ...noun('zone'), title: data => data.name },
   zoneDefault: { ...standalone, ...noun('default zone'), title: data => `Default ${data.family} zone`, writers: 'lead', appendOnly: true },
   cuppingTable: {
@@ -80,6 +82,12 @@ export const entities: Definitions = {
     parent: data => ref('brew', data.brewId) ?? ref('lot', data.lotId) ?? ref('trip', data.tripId),
     links: data => [ref('trip', data.tripId), ref('lot', data.lotId), ref('brew', data.brewId)].filter(r => r !== null),
   },
+  // A version is part of its recipe (who may add one is decided by the recipe's author), and carries
+  // its own reason. Its recipe is checked by the recipe rules, not as a link: a new recipe's first
+  // version reaches the server before the recipe that names it.
+  recipeVersion: { ...plain, ...noun('recipe version'), title: data => `Version ${data.number}`, appendOnly: true, governedBy: 'parent', partOf: 'recipes', parent: data => ref('recipe', data.recipeId), links: () => [] },
+  houseRecipe: { ...standalone, ...noun('house recipe'), title: data => `House ${data.method} recipe`, writers: 'lead', appendOnly: true, links: data => [ref('recipe', data.recipeId)].filter(r => r !== null) },
+  dialIn: { ...standalone, ...noun('dial-in session'), title: data => `Dial-in at ${data.place}`, links: data => [ref('recipe', data.recipeId)].filter(r => r !== null) },
 }
 
 /**

@@ -51,7 +51,7 @@ export function refusalOf(actor: Actor, change: RecordChange): string | null {
   const teammate = change.authorId !== null && change.authorId !== actor.userId
   if (teammate && actor.role === 'member') {
     return definition.governedBy === 'parent'
-      ? `Members can add ${definition.noun.many} only to their own brews; ask a lead to correct this one.`
+      ? `Members can add ${definition.noun.many} only to their own ${definition.partOf ?? 'brews'}; ask a lead to correct this one.`
       : 'Members can change only the records they made; ask a lead to correct this one.'
   }
   if (reasonRequired(actor, change) && !change.reason?.trim())

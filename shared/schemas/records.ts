@@ -74,6 +74,9 @@ export const derivedSchemas = {
   scoreSheet: z.null(),
   score: z.null(),
   photo: z.null(),
+  recipeVersion: z.null(),
+  houseRecipe: z.null(),
+  dialIn: z.null(),
 } as const satisfies Record<EntityName, z.ZodType>
 
 export type EntityDerived<E extends EntityName> = z.infer<(typeof derivedSchemas)[E]>

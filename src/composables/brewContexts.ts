@@ -24,12 +24,16 @@ export interface ContextRecords {
   defaults: LocalRecord<'zoneDefault'>[]
   /** Cupping tables, for the bowls brewed on them. */
   tables?: Map<string, LocalRecord<'cuppingTable'>>
+  recipeVersions: Map<string, LocalRecord<'recipeVersion'>>
+  dialIns: Map<string, LocalRecord<'dialIn'>>
 }
 
-/** What a brew was measured for, in a few words: "Cup K1 · Heat 1", "Lot: Alder Ridge Estate". */
+/** What a brew was measured for, in a few words: "Cup K1 · Heat 1", "Recipe: House filter v3 · dial-in at Saltmarsh Night Market". */
 export function contextLabel(context: BrewContext, found: ContextRecords): string {
+  const session = context.sessionId ? found.dialIns.get(context.sessionId) : undefined
+  const dialIn = session ? `dial-in at ${session.place}` : ''
   if (context.kind === 'quick' || !context.refId)
-    return 'Quick brew'
+    return dialIn ? `Blank ${dialIn}` : 'Quick brew'
   if (context.kind === 'entry') {
     const entry = found.entries.get(context.refId)
     const round = entry && found.rounds.get(entry.roundId)
@@ -43,7 +47,10 @@ export function contextLabel(context: BrewContext, found: ContextRecords): strin
     return lot ? `Lot: ${lot.farm}${at}` : 'A lot not on this phone'
   }
   const recipe = found.recipes.get(context.refId)
-  return recipe ? `Recipe: ${recipe.name}` : 'A recipe not on this phone'
+  const version = context.versionId ? found.recipeVersions.get(context.versionId) : undefined
+  // The name the version had, when it is on the phone: a recipe renamed later keeps its old brews' names.
+  const name = version?.settings.name ?? recipe?.name
+  return name ? `Recipe: ${name}${version ? ` v${version.number}` : ''}${dialIn ? ` · ${dialIn}` : ''}` : 'A recipe not on this phone'
 }
 
 /** The team's default for a family: the latest choice a lead made, else the family's preset. */
@@ -54,8 +61,25 @@ export function teamDefault(family: ZoneFamily, found: ContextRecords): Zone {
 }
 
 /**
- * The zone a brew's verdict belongs to: its context's (an event's for a cup, the cupping zone for
- * a lot's bowl), else the team's default for its family. The same on every phone, list, chart and export, whatever the phone shows
+ * A recipe brew's zone: that of the version it followed (else of the recipe as it stands); a blank
+ * dial-in attempt's: that of its session. Undefined when they name none.
+ */
+function ownZone(context: BrewContext, found: ContextRecords): JudgedZone | undefined {
+  if (context.kind === 'recipe' && context.refId) {
+    const version = context.versionId ? found.recipeVersions.get(context.versionId) : undefined
+    const zoneId = version ? version.settings.zoneId : found.recipes.get(context.refId)?.zoneId
+    const zone = zoneId ? found.zones(zoneId) : undefined
+    return zone && { zone, source: 'the recipe\'s zone' }
+  }
+  const session = context.kind === 'quick' && context.sessionId ? found.dialIns.get(context.sessionId) : undefined
+  const zone = session?.zoneId ? found.zones(session.zoneId) : undefined
+  return zone && { zone, source: 'the dial-in\'s zone' }
+}
+
+/**
+ * The zone a brew's verdict belongs to: its context's (an event's for a cup, the cupping zone for a
+ * lot's bowl, a recipe's for a recipe brew, a dial-in's for a blank attempt), else the team's
+ * default for its family. The same on every phone, list, chart and export, whatever the phone shows
  * on its own chart. A zone of the wrong family (a drip zone for an espresso) is never used.
  */
 export function judgedZone(context: BrewContext, method: string, found: ContextRecords): JudgedZone {
@@ -71,5 +95,8 @@ export function judgedZone(context: BrewContext, method: string, found: ContextR
   // A lot's brew is a cupping bowl: judged, never dialled in (the cupping zone gives no advice).
   if (context.kind === 'lot' && family === zoneFamily(cuppingZone))
     return { zone: cuppingZone, source: 'the zone for cupping bowls' }
+  const own = ownZone(context, found)
+  if (own && zoneFamily(own.zone) === family)
+    return own
   return { zone: teamDefault(family, found), source: 'the team\'s default' }
 }

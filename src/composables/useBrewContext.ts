@@ -1,4 +1,5 @@
 import type { Ref } from 'vue'
+import type { BrewMethod } from '../../shared/brewing'
 import type { BrewContext, ContextKind } from '../../shared/schemas/entities'
 import type { LocalRecord } from '../db/database'
 import type { BrewForm } from './useBrewForm'
@@ -7,6 +8,7 @@ import { db } from '../db/database'
 import { dayOf, grams } from '../forms/format'
 import { formatDuration, numberText } from '../forms/numbers'
 import { capital } from '../forms/words'
+import { houseRecipes, methodOrder } from './recipeBook'
 import { useLiveQuery } from './useLiveQuery'
 
 /** What a brew was measured for, in words, with what it brings to the form. */
@@ -22,6 +24,8 @@ export interface BrewContextView {
   zoneId: string | null
   /** An entry in a signed-off round takes no more brews. */
   closed: boolean
+  /** The method a recipe is the crew's house recipe of. */
+  house?: BrewMethod
 }
 
 const quick: BrewContextView = { kind: 'quick', refId: null, title: 'Quick brew', detail: 'Not tied to a recipe, a lot or an event.', defaults: {}, zoneId: null, closed: false }
@@ -67,11 +71,16 @@ async function describeRecord(found: ContextRecord): Promise<BrewContextView> {
   const base = { ...quick, kind: found.kind, refId: found.record.id }
   if (found.kind === 'recipe') {
     const recipe = found.record
+    const version = recipe.versionId ? await db.recipeVersions.get(recipe.versionId) : undefined
+    const masses = recipe.method === 'espresso' || recipe.waterMass === null
+      ? `${formatMass(recipe.dose)} g → ${formatMass(recipe.beverageMass ?? 0)} g${recipe.contactTimeSeconds !== null ? ` in ${formatDuration(recipe.contactTimeSeconds)}` : ''}`
+      : `${formatMass(recipe.dose)} g in ${formatMass(recipe.waterMass)} g of water`
     return {
       ...base,
-      title: `Recipe: ${recipe.name}`,
-      detail: `${capital(recipe.method)} · ${formatMass(recipe.dose)} g in ${formatMass(recipe.waterMass)} g of water`,
-      defaults: { method: recipe.method, waterMass: numberText(recipe.waterMass), grindSetting: recipe.grindSetting, contactTime: formatDuration(recipe.contactTimeSeconds), waterTemperature: numberText(recipe.waterTemperatureC) },
+      title: `Recipe: ${recipe.name}${version ? ` v${version.number}` : ''}`,
+      detail: [capital(recipe.method), masses, recipe.grindSetting].filter(Boolean).join(' · '),
+      // The version it follows goes with the brew; an espresso takes no water, whatever the form held.
+      defaults: { context: { kind: 'recipe', refId: recipe.id, versionId: recipe.versionId }, method: recipe.method, waterMass: recipe.method === 'espresso' ? '' : numberText(recipe.waterMass), grindSetting: recipe.grindSetting, contactTime: formatDuration(recipe.contactTimeSeconds), waterTemperature: numberText(recipe.waterTemperatureC) },
     }
   }
   if (found.kind === 'lot') {
@@ -98,19 +107,25 @@ export function useBrewContext(context: Ref<BrewContext>) {
   return useLiveQuery(() => describeContext(context.value), quick, context)
 }
 
-/** Everything a brew can be measured for on this team, for the picker. */
+/** Everything a brew can be measured for on this team, for the picker: the crew's house recipes first. */
 export async function contextChoices(teamId: string): Promise<BrewContextView[]> {
   const open = <T extends { deletedAt: string | null }>(rows: T[]): T[] => rows.filter(row => !row.deletedAt)
-  const [recipes, lots, entries] = await Promise.all([
+  const [recipes, lots, entries, marks] = await Promise.all([
     db.recipes.where('teamId').equals(teamId).toArray(),
     db.lots.where('teamId').equals(teamId).toArray(),
     db.entries.where('teamId').equals(teamId).toArray(),
+    db.houseRecipes.where('teamId').equals(teamId).toArray(),
   ])
+  const house = houseRecipes(marks, recipes)
+  const houseOf = new Map([...house].map(([method, recipe]) => [recipe.id, method]))
   const found: ContextRecord[] = [
-    ...open(recipes).map(record => ({ kind: 'recipe' as const, record })),
+    ...open(recipes).filter(record => !record.retired).map(record => ({ kind: 'recipe' as const, record })),
     ...open(lots).map(record => ({ kind: 'lot' as const, record })),
     ...open(entries).map(record => ({ kind: 'entry' as const, record })),
   ]
-  const views = await Promise.all(found.map(describeRecord))
-  return [quick, ...views.filter(view => !view.closed).sort((a, b) => a.kind.localeCompare(b.kind) || a.title.localeCompare(b.title))]
+  const views = (await Promise.all(found.map(describeRecord))).map(view => ({ ...view, house: view.kind === 'recipe' && view.refId ? houseOf.get(view.refId) : undefined }))
+  const rank = (view: BrewContextView): number => (view.house ? methodOrder.indexOf(view.house) : 10)
+  const sorted = views.filter(view => !view.closed).sort((a, b) => rank(a) - rank(b) || a.kind.localeCompare(b.kind) || a.title.localeCompare(b.title))
+  const first = sorted.filter(view => view.house)
+  return [...first, quick, ...sorted.filter(view => !view.house)]
 }

@@ -1,10 +1,10 @@
 import type { InjectionKey, Ref } from 'vue'
-import type { BrewInput, BrewMethod, BrewResult, BrewUncertainty, ReadingKind, ReadingsSummary, Zone, ZoneVerdict } from '../../shared/brewing'
+import type { BrewInput, BrewMethod, BrewRatio, BrewResult, BrewUncertainty, ReadingKind, ReadingsSummary, Zone, ZoneVerdict } from '../../shared/brewing'
 import type { BrewContext } from '../../shared/schemas/entities'
 import type { JudgedZone } from './brewContexts'
 import type { Gauge } from './useGauges'
 import { computed, inject, reactive, watch } from 'vue'
-import { brewRatio, brewUncertainty, computeBrew, defaultRetainedRatio, summarizeReadings, zoneVerdict } from '../../shared/brewing'
+import { brewRatioOf, brewUncertainty, computeBrew, defaultRetainedRatio, summarizeReadings, zoneVerdict } from '../../shared/brewing'
 import { readDuration, readNumber } from '../forms/numbers'
 
 /**
@@ -35,6 +35,8 @@ export interface BrewForm {
   waterTemperature: string
   notes: string
   readings: BrewFormReading[]
+  /** For an attempt of a dial-in session: what changed since the attempt before. */
+  changeNote: string
 }
 
 export const lrrText = (method: BrewMethod): string => (method === 'immersion' ? defaultRetainedRatio.immersion : defaultRetainedRatio.percolation).toFixed(1)
@@ -60,6 +62,7 @@ export function emptyBrewForm(): BrewForm {
     waterTemperature: '',
     notes: '',
     readings: [],
+    changeNote: '',
   }
 }
 
@@ -102,8 +105,8 @@ export interface BrewOutcome {
   outlier: (NonNullable<ReadingsSummary['outlier']> & { leftOut: boolean }) | null
   uncertainty: BrewUncertainty | null
   verdict: ZoneVerdict | null
-  /** Water per gram of coffee, when the water was given. */
-  ratio: number | null
+  /** Brew ratio, grams of beverage per gram of coffee (shared/brewing/ratio.ts), once the masses give it. */
+  ratio: BrewRatio | null
   /** The zone the verdict is against (the context's, else the team's default), and why. */
   zone: Zone
   zoneSource: string
@@ -141,13 +144,15 @@ export function useBrewForm(initial: BrewForm, options: { gauges: Ref<ReadonlyMa
       calibration: strength.calibration,
       brixFactor: strength.usesFactor ? read.brixFactor.value : null,
       readings: included.map(reading => reading.value),
-      waterMass: read.waterMass.value,
+      // An espresso's water is never weighed and its field is hidden: what it held (a recipe's
+      // filter water, say) is never used.
+      waterMass: form.method === 'espresso' ? null : read.waterMass.value,
       retainedRatio: read.retainedRatio.value,
       ...masses,
     }
     const result = computeBrew(input)
     // A field the result does not use (hidden on the screen) cannot hold up a save.
-    const unused = new Set([...(strength.usesFactor ? [] : ['brixFactor']), ...(result.retainedRatio === null ? ['retainedRatio'] : [])])
+    const unused = new Set([...(strength.usesFactor ? [] : ['brixFactor']), ...(result.retainedRatio === null ? ['retainedRatio'] : []), ...(form.method === 'espresso' ? ['waterMass'] : [])])
     const invalid: string[] = numberFields.filter(field => read[field].error && !unused.has(field))
     if (readDuration(form.contactTime).error)
       invalid.push('contactTime')
@@ -156,7 +161,6 @@ export function useBrewForm(initial: BrewForm, options: { gauges: Ref<ReadonlyMa
       invalid.push('waterTemperature')
     const summary = included.length ? summarizeReadings(input.readings) : null
     const { zone, source: zoneSource } = options.judge(form.context, form.method)
-    const water = read.waterMass.value
     return {
       input,
       result,
@@ -165,7 +169,7 @@ export function useBrewForm(initial: BrewForm, options: { gauges: Ref<ReadonlyMa
       outlier,
       uncertainty: brewUncertainty(input, result, { scaleResolution, byDifference: form.byDifference, repeatability: strength.repeatability }),
       verdict: result.tdsPercent !== null && result.yieldPercent !== null && result.tdsPercent > 0 && result.yieldPercent > 0 ? zoneVerdict(zone, { tdsPercent: result.tdsPercent, yieldPercent: result.yieldPercent }) : null,
-      ratio: result.dose !== null && water !== null && water > 0 ? brewRatio(result.dose, water) : null,
+      ratio: brewRatioOf(result, input.waterMass ?? null),
       zone,
       zoneSource,
       invalid,

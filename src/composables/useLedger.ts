@@ -3,7 +3,7 @@ import type { Zone } from '../../shared/brewing'
 import type { ContextKind } from '../../shared/schemas/entities'
 import type { LocalRecord } from '../db/database'
 import { computed, ref } from 'vue'
-import { computeBrew, formatTds, formatYield, roundHalfUp, zoneVerdict } from '../../shared/brewing'
+import { brewRatioOf, computeBrew, formatTds, formatYield, roundHalfUp, zoneVerdict } from '../../shared/brewing'
 import { brewInputOf } from '../../shared/records/brew-input'
 import { brewsNewestFirst } from '../db/queries'
 import { useLiveQuery } from './useLiveQuery'
@@ -92,7 +92,10 @@ export function ledgerRows(brews: Brew[], zoneFor: ZoneFor, nameOf: (userId: str
   const masses = (brew: Brew) => computeBrew(brewInputOf(brew, [], null))
   const grams = (value: number | null): number | string => (value === null ? '' : roundHalfUp(value, 2))
   return brews.map((brew) => {
-    const { dose, beverageMass, beverageEstimated } = masses(brew)
+    const result = masses(brew)
+    const { dose, beverageMass, beverageEstimated } = result
+    // The one brew ratio (shared/brewing/ratio.ts), with the brew's own strength for a full immersion.
+    const ratio = brewRatioOf({ ...result, tdsPercent: tdsOf(brew) }, brew.method === 'espresso' ? null : brew.waterMass)
     const zone = zoneFor(brew)
     const inside = inZone(brew, zone)
     return {
@@ -105,6 +108,8 @@ export function ledgerRows(brews: Brew[], zoneFor: ZoneFor, nameOf: (userId: str
       'beverage (g)': grams(beverageEstimated ? null : beverageMass),
       'water (g)': number(brew.waterMass),
       'LRR (g/g)': number(brew.retainedRatio),
+      'brew ratio (g of beverage per g of coffee)': ratio ? roundHalfUp(ratio.ratio, 1) : '',
+      'what changed since the attempt before': brew.changeNote,
       'grind setting': brew.grindSetting,
       'contact time (s)': number(brew.contactTimeSeconds),
       'water temperature (°C)': number(brew.waterTemperatureC),

@@ -113,6 +113,9 @@ export const tableOf = {
   scoreSheet: 'scoreSheets',
   score: 'scores',
   photo: 'photos',
+  recipeVersion: 'recipeVersions',
+  houseRecipe: 'houseRecipes',
+  dialIn: 'dialIns',
 } as const satisfies Record<EntityName, string>
 export type RecordTableName = (typeof tableOf)[EntityName]
 
@@ -133,6 +136,9 @@ export class LixiviaDatabase extends Dexie {
   recipes!: RecordTables['recipe']
   zones!: RecordTables['zone']
   zoneDefaults!: RecordTables['zoneDefault']
+  recipeVersions!: RecordTables['recipeVersion']
+  houseRecipes!: RecordTables['houseRecipe']
+  dialIns!: RecordTables['dialIn']
   uploads!: Table<UploadEntry, string>
   cuppingTables!: RecordTables['cuppingTable']
   scoreSheets!: RecordTables['scoreSheet']
@@ -174,6 +180,13 @@ export class LixiviaDatabase extends Dexie {
       photos: 'id, teamId, tripId, lotId, brewId, sync.state',
       photoFiles: 'id, teamId',
     })
+    // Recipe versions, the crew's house marks and dial-in sessions (an attempt is a brew whose
+    // context names its session, so brews need no new index). An older version skipped these
+    // records, and brews whose context names a version or a session, as unreadable: every team is
+    // pulled again from the start (local changes stay).
+    this.version(7).stores({ recipeVersions: 'id, teamId, recipeId, sync.state', houseRecipes: 'id, teamId, sync.state', dialIns: 'id, teamId, recipeId, sync.state' }).upgrade(async (tx) => {
+      await tx.table('meta').where('key').startsWith('cursor:').delete()
+    })
     this.records = {
       instrument: this.instruments,
       calibration: this.calibrations,
@@ -191,6 +204,9 @@ export class LixiviaDatabase extends Dexie {
       scoreSheet: this.scoreSheets,
       score: this.scores,
       photo: this.photos,
+      recipeVersion: this.recipeVersions,
+      houseRecipe: this.houseRecipes,
+      dialIn: this.dialIns,
     }
   }
 

@@ -77,6 +77,7 @@ export function bowlRecord(table: LocalRecord<'cuppingTable'>, lotId: string, en
       waterTemperatureC: table.waterTemperatureC,
       notes: '',
       excludedReadingIds: [],
+      changeNote: '',
       brewedAt,
     },
     // A bowl keeps every reading: its evenness is judged against the other bowls, not within itself.

@@ -26,7 +26,8 @@ export function brewDataOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge | 
     ...(form.byDifference
       ? { dose: null, beverageMass: null, doseGross: blank(form.doseGross), doseTare: blank(form.doseTare), beverageGross: blank(form.beverageGross), beverageTare: blank(form.beverageTare) }
       : { dose: blank(form.dose), beverageMass: blank(form.beverageMass), doseGross: null, doseTare: null, beverageGross: null, beverageTare: null }),
-    waterMass: blank(form.waterMass),
+    // The water the result used: none for an espresso, whatever its hidden field still holds.
+    waterMass: outcome.input.waterMass ?? null,
     // The LRR the result used (typed or the common-practice default), so the record shows it.
     retainedRatio: result.retainedRatio,
     grindSetting: form.grindSetting.trim(),
@@ -34,6 +35,7 @@ export function brewDataOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge | 
     waterTemperatureC: blank(form.waterTemperature),
     notes: form.notes.trim(),
     excludedReadingIds: form.readings.flatMap((reading, index) => ((reading.excluded || (outcome.outlier?.leftOut && outcome.outlier.index === index)) && reading.id ? [reading.id] : [])),
+    changeNote: form.changeNote.trim(),
   }
 }
 
@@ -83,5 +85,6 @@ export function formOfBrew(brew: EntityData<'brew'>, readings: readonly Pick<Loc
     notes: brew.notes,
     // A reading left out as an outlier comes back set aside, which is what it is on record.
     readings: readings.map(reading => ({ id: reading.id, value: reading.value, excluded: excluded.has(reading.id), kept: true })),
+    changeNote: brew.changeNote,
   }
 }

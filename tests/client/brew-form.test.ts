@@ -145,6 +145,25 @@ describe('the measure form\'s LRR and immersion', () => {
     expect(lrr()).toBe('2.6')
   })
 
+  it('gives an espresso its ratio from the beverage, never from water a recipe left in the hidden field', async () => {
+    // 36 g from 18 g is 1:2.0; the 250 g of filter water once gave 250 / 18 = 1:13.9.
+    const wrapper = mount(harness(null, { method: 'espresso', byDifference: false, dose: '18', beverageMass: '36', waterMass: '250' }), { global: { plugins: [IonicVue] } })
+    await addReading(wrapper, '10')
+    expect(text(wrapper, 'ratio')).toBe('Brew ratio 1:2.0 (grams of beverage per gram of coffee)')
+    // EY = 10 × 36 / 18 = 20.0 %: from the weighed shot, not from the water.
+    expect(text(wrapper, 'ey')).toBe('20.0')
+    mounted.beverageMass = ''
+    await flushPromises()
+    expect(wrapper.find('[data-test="ratio"]').exists()).toBe(false)
+    expect(text(wrapper, 'missing')).toContain('Weigh the beverage')
+  })
+
+  it('words a percolation\'s ratio the same way, from the beverage the yield used', async () => {
+    // 240 g from 15 g: 1:16.0, grams of beverage per gram of coffee (the chart's lines).
+    const wrapper = mount(harness(null, { byDifference: false, dose: '15', beverageMass: '240', waterMass: '270' }), { global: { plugins: [IonicVue] } })
+    expect(text(wrapper, 'ratio')).toBe('Brew ratio 1:16.0 (grams of beverage per gram of coffee)')
+  })
+
   it('takes an immersion from the poured-off beverage and the LRR when no water is given', async () => {
     // EY = TDS × (beverage + LRR × dose) / dose = 1.20 × (150 + 3 × 10) / 10 = 21.6 % (mass balance).
     const wrapper = mount(harness(null, { method: 'immersion', byDifference: false, dose: '10', beverageMass: '150', retainedRatio: '3.0' }), { global: { plugins: [IonicVue] } })

@@ -58,4 +58,18 @@ describe('a brew from the form to its record and back', () => {
     expect(formOfBrew(stored, readings).context).toEqual(context)
     expect(again.context.tableId).toBe(context.tableId)
   })
+
+  it('stores no water for an espresso, whatever its hidden field held from a filter recipe', () => {
+    const { stored } = roundTrip({ method: 'espresso', byDifference: false, dose: '18', beverageMass: '36', waterMass: '250', instrumentId: pen.id, readings: [{ value: 10, excluded: false }] })
+    expect(stored.waterMass).toBeNull()
+    // EY = 10 × 36 / 18 = 20 %, from the weighed shot (handbook worked espresso).
+    expect(computeBrew(brewInputOf(stored, [{ id: readingIds[0]!, value: 10 }], null)).yieldPercent).toBeCloseTo(20, 10)
+  })
+
+  it('keeps an attempt\'s change note and its session with the brew', () => {
+    const session = '0190a8c4-0000-7000-8000-0000000000d1'
+    const { stored, again } = roundTrip({ byDifference: false, dose: '15', beverageMass: '240', changeNote: ' two clicks finer ', context: { kind: 'quick', refId: null, sessionId: session } })
+    expect(stored).toMatchObject({ changeNote: 'two clicks finer', context: { sessionId: session } })
+    expect(again.changeNote).toBe('two clicks finer')
+  })
 })

@@ -28,7 +28,8 @@ function brew(extra: Partial<LocalRecord<'brew'>>): LocalRecord<'brew'> {
 describe('ledgerRows', () => {
   it('puts units in the headers and the figures at display precision', () => {
     const [row] = ledgerRows([brew({})], () => us)
-    expect(row).toMatchObject({ 'TDS (%)': '1.35', 'extraction yield (%)': '21.6', 'dose (g)': 15, 'beverage (g)': 240, 'zone': 'US drip standard', 'in zone': 'yes', 'synced': 'yes' })
+    // 240 g of beverage from 15 g: 16.0 g per gram, the brew ratio the Bench and the chart show.
+    expect(row).toMatchObject({ 'TDS (%)': '1.35', 'extraction yield (%)': '21.6', 'dose (g)': 15, 'beverage (g)': 240, 'brew ratio (g of beverage per g of coffee)': 16, 'zone': 'US drip standard', 'in zone': 'yes', 'synced': 'yes' })
   })
 
   it('survives a CSV round trip with quotes and commas in the notes (papaparse)', () => {
@@ -36,6 +37,12 @@ describe('ledgerRows', () => {
     const parsed = Papa.parse<Record<string, string>>(csv, { header: true }).data
     expect(parsed[0]!.notes).toBe('bloom 40 s, "washed" lot')
     expect(parsed[1]).toMatchObject({ 'TDS (%)': '', 'in zone': '', 'synced': 'no' })
+  })
+
+  it('never takes an espresso\'s ratio from water it does not use', () => {
+    // 36 g from 18 g is 2.0 g per gram; the 250 g of water on the record plays no part.
+    const [row] = ledgerRows([brew({ method: 'espresso', dose: 18, beverageGross: null, beverageTare: null, beverageMass: 36, waterMass: 250, derived: { tdsPercent: 10, yieldPercent: 20 } })], () => us)
+    expect(row!['brew ratio (g of beverage per g of coffee)']).toBe(2)
   })
 })
 

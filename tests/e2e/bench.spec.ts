@@ -132,19 +132,20 @@ describe('measuring a brew on the Bench', () => {
     await page.goto('/bench')
     await onScreen(page, 'change-context').click()
     await page.locator('ion-modal ion-item', { hasText: 'Recipe: House filter' }).click()
-    await expect.poll(() => onScreen(page, 'context-title').innerText()).toBe('Recipe: House filter')
-    // The recipe fills in its water and settings (demo data: 250 g, 22 clicks, 3:30, 94 °C).
+    await expect.poll(() => onScreen(page, 'context-title').innerText()).toBe('Recipe: House filter v2')
+    // The recipe fills in its water and settings (demo data: version 2, from the night market's
+    // dial-in: 250 g, 17 clicks, 3:45, 96 °C).
     expect(await onScreen(page, 'water').locator('input').inputValue()).toBe('250')
-    expect(await onScreen(page, 'contact-time').locator('input').inputValue()).toBe('3:30')
+    expect(await onScreen(page, 'contact-time').locator('input').inputValue()).toBe('3:45')
     const recipeId = await page.evaluate(async () => {
       const open = indexedDB.open('lixivia')
       const db = await new Promise<IDBDatabase>(resolve => (open.onsuccess = () => resolve(open.result)))
       const all = db.transaction('recipes').objectStore('recipes').getAll()
-      return new Promise<string>(resolve => (all.onsuccess = () => resolve((all.result as { id: string }[])[0]!.id)))
+      return new Promise<string>(resolve => (all.onsuccess = () => resolve((all.result as { id: string, name: string }[]).find(recipe => recipe.name === 'House filter')!.id)))
     })
     await page.goto('/ledger')
     await page.goto(`/bench?context=recipe&ref=${recipeId}`)
-    await expect.poll(() => onScreen(page, 'context-title').innerText()).toBe('Recipe: House filter')
+    await expect.poll(() => onScreen(page, 'context-title').innerText()).toBe('Recipe: House filter v2')
   })
 
   it('threw no uncaught errors', () => {

@@ -31,14 +31,14 @@ describe('seedDemo', () => {
 
   it('writes the demo records through the sync push, so the server derived every brew\'s result', async () => {
     const stored = await database.db.select().from(records).where(eq(records.entity, 'brew'))
-    // Six brews of the week and twenty cupping bowls (four lots, five bowls each).
-    expect(stored).toHaveLength(26)
+    // The week's brews, twenty cupping bowls (four lots, five bowls each) and five dial-in attempts.
+    expect(stored).toHaveLength(31)
     for (const brew of stored) {
       expect(brew.derived!.tdsPercent, JSON.stringify(brew.data)).toEqual(expect.any(Number))
       expect(brew.derived!.yieldPercent).toEqual(expect.any(Number))
     }
     const [row] = await database.db.select({ count: sql<number>`count(*)` }).from(records).where(eq(records.entity, 'reading'))
-    expect(Number(row!.count)).toBe(57)
+    expect(Number(row!.count)).toBe(72)
   })
 
   it('writes a buying trip with four lots, a cupping table with scores, and two photos whose pictures are stored', async () => {
@@ -53,6 +53,20 @@ describe('seedDemo', () => {
       file?.stream.destroy()
       expect(file).toMatchObject({ contentType: 'image/jpeg', size: photo.data.sizeBytes })
     }
+  })
+
+  it('ends the night market\'s dial-in of five attempts in the crew\'s house recipe, at the version the fifth became', async () => {
+    const of = async (entity: EntityName) => database.db.select().from(records).where(eq(records.entity, entity))
+    const [session] = await of('dialIn')
+    const attempts = (await of('brew')).filter(brew => (brew.data.context as { sessionId?: string }).sessionId === session!.id)
+    expect(attempts).toHaveLength(5)
+    const [recipe] = await of('recipe')
+    const versions = await of('recipeVersion')
+    const current = versions.find(version => version.id === recipe!.data.versionId)
+    expect(current?.data).toMatchObject({ number: 2, fromBrewId: attempts.find(a => a.data.changeNote === 'One click finer')!.id })
+    expect(recipe!.data).toMatchObject({ grindSetting: '17 clicks', waterTemperatureC: 96 })
+    const [mark] = await of('houseRecipe')
+    expect(mark!.data).toEqual({ method: 'percolation', recipeId: recipe!.id })
   })
 
   it('stores argon2id hashes that verify the printed password', async () => {
