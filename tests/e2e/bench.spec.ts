@@ -83,16 +83,18 @@ describe('measuring a brew on the Bench', () => {
     await expect.poll(() => list.locator('ion-item').count()).toBe(1)
     expect(await list.innerText()).toContain('1.35 %TDS · 21.6 % EY')
     // The brew found is in the US zone, so outside it nothing matches.
+    await onScreen(page, 'filter-toggle').click()
     await onScreen(page, 'filter-zone').locator('ion-segment-button', { hasText: 'Outside' }).click()
     await page.getByText('No brew matches these filters.').waitFor()
+    expect(await onScreen(page, 'filter-toggle').innerText()).toMatch(/Filters · 1/i)
     expect(await list.locator('ion-item').count()).toBe(0)
     await onScreen(page, 'filter-zone').locator('ion-segment-button', { hasText: 'In zone' }).click()
     await expect.poll(() => list.locator('ion-item').count()).toBeGreaterThan(0)
     expect(await list.innerText()).not.toContain('Outside')
     const [download] = await Promise.all([page.waitForEvent('download'), onScreen(page, 'export-csv').click()])
     const csv = (await import('node:fs')).readFileSync((await download.path())!, 'utf8')
-    expect(csv.split('\n')[0]).toContain('TDS (%),extraction yield (%),dose (g),beverage (g)')
-    expect(csv).toContain('1.35,21.6,15,240')
+    expect(csv.split('\n')[0]).toContain('TDS (%),extraction yield (%),dose (g),dose gross (g),dose tare (g),beverage (g)')
+    expect(csv).toContain('1.35,21.6,15,27.5,12.5,240')
     await screenshot(page, 'ledger')
   })
 
@@ -124,6 +126,7 @@ describe('measuring a brew on the Bench', () => {
     // The context stays for the next bowl of the same lot.
     expect(await onScreen(page, 'context-title').innerText()).toBe('Lot: Copperbeck Farm')
     await page.goto('/ledger')
+    await onScreen(page, 'filter-toggle').click()
     await onScreen(page, 'filter-context').locator('ion-segment-button', { hasText: 'Lot' }).click()
     await expect.poll(() => onScreen(page, 'ledger-list').innerText()).toContain('1.20 %TDS · 22.1 % EY')
   })
