@@ -4,6 +4,7 @@ import { defineConfig } from 'vite'
 import { VitePWA } from 'vite-plugin-pwa'
 import { configDefaults } from 'vitest/config'
 import pkg from './package.json' with { type: 'json' }
+import { precompress } from './scripts/lib/precompress'
 
 const apiTarget = `http://127.0.0.1:${process.env.PORT ?? '8080'}`
 
@@ -68,6 +69,7 @@ export default defineConfig({
         cleanupOutdatedCaches: true,
       },
     }),
+    precompress(),
   ],
   define: {
     __APP_VERSION__: JSON.stringify(pkg.version),
