@@ -48,14 +48,17 @@ export const entities: Definitions = {
     links: data => [contextRef(data.context), ref('calibration', data.calibrationId)].filter(r => r !== null),
   },
   reading: { ...child<'reading'>(data => ref('brew', data.brewId)), ...noun('reading'), title: data => `Reading ${data.value}`, appendOnly: true, governedBy: 'parent', reasonForTeammate: true },
-  event: { ...standalone, ...noun('event'), title: data => data.name },
-  round: { ...child<'round'>(data => ref('event', data.eventId)), ...noun('round'), title: data => data.name },
-  entry: { ...child<'entry'>(data => ref('round', data.roundId)), ...noun('cup'), title: data => `Cup ${data.code}` },
+  // A competition is set up by a lead or an owner (the head judge); members measure its pours.
+  event: { ...standalone, ...noun('event'), title: data => data.name, writers: 'lead' },
+  round: { ...child<'round'>(data => ref('event', data.eventId)), ...noun('round'), title: data => data.name, writers: 'lead' },
+  entry: { ...child<'entry'>(data => ref('round', data.roundId)), ...noun('cup'), title: data => `Cup ${data.code}`, writers: 'lead' },
   trip: { ...standalone, ...noun('trip'), title: data => data.name },
   lot: { ...child<'lot'>(data => ref('trip', data.tripId)), ...noun('lot'), title: data => data.farm },
   recipe: { ...standalone, ...noun('recipe'), title: data => data.name },
   zone: { ...standalone, ...noun('zone'), title: data => data.name },
   zoneDefault: { ...standalone, ...noun('default zone'), title: data => `Default ${data.family} zone`, writers: 'lead', appendOnly: true },
+  signoff: { ...child<'signoff'>(data => ref('round', data.roundId)), ...noun('sign-off'), title: () => 'Sign-off of the round', writers: 'lead', appendOnly: true },
+  zeroCheck: { ...child<'zeroCheck'>(data => ref('instrument', data.instrumentId)), ...noun('zero check'), title: data => `Zero check of ${data.checkedAt.slice(0, 10)}`, appendOnly: true },
 }
 
 /**

@@ -70,6 +70,8 @@ export const derivedSchemas = {
   recipe: z.null(),
   zone: z.null(),
   zoneDefault: z.null(),
+  signoff: z.null(),
+  zeroCheck: z.null(),
 } as const satisfies Record<EntityName, z.ZodType>
 
 export type EntityDerived<E extends EntityName> = z.infer<(typeof derivedSchemas)[E]>

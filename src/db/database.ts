@@ -101,6 +101,8 @@ export const tableOf = {
   recipe: 'recipes',
   zone: 'zones',
   zoneDefault: 'zoneDefaults',
+  signoff: 'signoffs',
+  zeroCheck: 'zeroChecks',
 } as const satisfies Record<EntityName, string>
 export type RecordTableName = (typeof tableOf)[EntityName]
 
@@ -121,6 +123,8 @@ export class LixiviaDatabase extends Dexie {
   recipes!: RecordTables['recipe']
   zones!: RecordTables['zone']
   zoneDefaults!: RecordTables['zoneDefault']
+  signoffs!: RecordTables['signoff']
+  zeroChecks!: RecordTables['zeroCheck']
   uploads!: Table<UploadEntry, string>
   /** The record tables by entity, for code that handles any entity. */
   readonly records: RecordTables
@@ -148,6 +152,8 @@ export class LixiviaDatabase extends Dexie {
     this.version(4).stores({ uploads: 'id, teamId, state, createdAt', zoneDefaults: 'id, teamId, sync.state' }).upgrade(async (tx) => {
       await tx.table('meta').where('key').startsWith('cursor:').delete()
     })
+    // Competition judging: a round's sign-off queued on the phone, and each instrument's daily zero check.
+    this.version(5).stores({ signoffs: 'id, teamId, roundId, sync.state', zeroChecks: 'id, teamId, instrumentId, sync.state' })
     this.records = {
       instrument: this.instruments,
       calibration: this.calibrations,
@@ -161,6 +167,8 @@ export class LixiviaDatabase extends Dexie {
       recipe: this.recipes,
       zone: this.zones,
       zoneDefault: this.zoneDefaults,
+      signoff: this.signoffs,
+      zeroCheck: this.zeroChecks,
     }
   }
 
