@@ -1,13 +1,14 @@
 import { v7 as uuidv7 } from 'uuid'
 import { brixToRefractiveIndex, defaultBrixFactor } from '../../shared/brewing'
+import { demoCompetition } from './demo-competition'
 
 /** A mutation as a phone would push it, for the demo team's first records. */
-interface DemoMutation { mutationId: string, entity: string, op: 'put', id: string, teamId: string, data: Record<string, unknown>, baseRev: null }
+export interface DemoMutation { mutationId: string, entity: string, op: 'put', id: string, teamId: string, data: Record<string, unknown>, baseRev: null }
 
 /**
  * The demo team's records, all invented: two refractometers (one calibrated with sucrose
- * standards), a house recipe, a buying trip with two lots, an event round with three cups, and a
- * week of brews measured against them. Returned per author, in the order they must be pushed.
+ * standards), a house recipe, a buying trip with two lots, a competition with a signed-off heat and
+ * one under way (demo-competition.ts), and a week of brews measured against them. Returned per author, in the order they must be pushed.
  */
 export function demoRecords(teamId: string, people: { owner: string, lead: string, member: string }, now = Date.now()): { userId: string, mutations: DemoMutation[] }[] {
   const put = (entity: string, data: Record<string, unknown>): DemoMutation => ({ mutationId: uuidv7(), entity, op: 'put', id: uuidv7(), teamId, data, baseRev: null })
@@ -22,9 +23,7 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
   const trip = put('trip', { name: 'North Terraces buying trip', origin: 'North Terraces', startsOn: at(10, 0).slice(0, 10), endsOn: at(3, 0).slice(0, 10), notes: '' })
   const alder = put('lot', { tripId: trip.id, farm: 'Alder Ridge Estate', region: 'North Terraces', variety: 'Typica', process: 'washed', moisturePercent: 10.8, lotSizeKg: 1380, askingPrice: 7.4, currency: 'EUR', notes: '' })
   const copperbeck = put('lot', { tripId: trip.id, farm: 'Copperbeck Farm', region: 'South Valley', variety: 'Bourbon', process: 'natural', moisturePercent: 11.4, lotSizeKg: 690, askingPrice: 8.1, currency: 'EUR', notes: '' })
-  const event = put('event', { name: 'Kestrel Quay Brewers Open', venue: 'Net Loft Hall', startsOn: at(1, 0).slice(0, 10), endsOn: at(1, 0).slice(0, 10), zoneId: 'european-drip' })
-  const heat = put('round', { eventId: event.id, name: 'Heat 1', position: 1, toleranceTdsPercent: 0.1, toleranceYieldPercent: 1 })
-  const cups = ['K1', 'K2', 'K3'].map(code => put('entry', { roundId: heat.id, code, contestant: '', notes: '' }))
+  const competition = demoCompetition(put, people, pen, at, now)
 
   const brew = (data: Record<string, unknown>, values: number[], kind: string, instrument: DemoMutation, calibration: DemoMutation | null): DemoMutation[] => {
     const made = put('brew', { context: { kind: 'quick', refId: null }, instrumentId: instrument.id, calibrationId: calibration?.id ?? null, strengthSource: calibration ? 'calibration' : 'direct', ...data })
@@ -35,7 +34,7 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
   const bowl = (lot: DemoMutation, tds: number[], daysAgo: number) => brew({ context: { kind: 'lot', refId: lot.id }, method: 'immersion', dose: 8.25, waterMass: 150, brixFactor: 0.85, grindSetting: 'cupping', contactTimeSeconds: 240, waterTemperatureC: 93, brewedAt: at(daysAgo, 15) }, tds.map(nD), 'nD', prism, line)
 
   return [
-    { userId: people.owner, mutations: [prism, pen, line, recipe, trip, alder, copperbeck, event, heat, ...cups] },
+    { userId: people.owner, mutations: [prism, pen, line, recipe, trip, alder, copperbeck, ...competition.setUp] },
     {
       userId: people.member,
       mutations: [
@@ -55,9 +54,10 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
       userId: people.owner,
       mutations: [
         ...brew({ method: 'espresso', dose: 18, beverageMass: 38.5, grindSetting: '2.4', contactTimeSeconds: 29, waterTemperatureC: 93, notes: 'Guest espresso', brewedAt: at(2, 14) }, [9.4, 9.5, 9.45], 'tds', pen, null),
-        ...brew({ context: { kind: 'entry', refId: cups[0]!.id }, method: 'percolation', doseGross: 28.5, doseTare: 12.5, beverageGross: 662.6, beverageTare: 412.6, notes: '', brewedAt: at(1, 10) }, [1.38, 1.39, 1.38], 'tds', pen, null),
-        ...brew({ context: { kind: 'entry', refId: cups[1]!.id }, method: 'percolation', doseGross: 29.0, doseTare: 12.5, beverageGross: 660.6, beverageTare: 412.6, notes: '', brewedAt: at(1, 11) }, [1.28, 1.27, 1.29], 'tds', pen, null),
       ],
     },
+    // The judges measure the pours; then the head judge signs Heat 1 off from the phone.
+    { userId: people.member, mutations: competition.measured },
+    { userId: people.lead, mutations: competition.signedOff },
   ]
 }

@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { memberships, records, users } from '../../server/db/schema'
 import { demoAccounts, demoPassword, seedDemo } from '../../server/db/seed'
 import { verifyPassword } from '../../server/services/passwords'
+import { isBlindCode } from '../../shared/records/blind-codes'
 import { createTestDatabase } from './helpers'
 
 let database: TestDatabase
@@ -24,13 +25,22 @@ describe('seedDemo', () => {
 
   it('writes the demo records through the sync push, so the server derived every brew\'s result', async () => {
     const stored = await database.db.select().from(records).where(eq(records.entity, 'brew'))
-    expect(stored).toHaveLength(8)
+    expect(stored).toHaveLength(15)
     for (const brew of stored) {
       expect(brew.derived!.tdsPercent, JSON.stringify(brew.data)).toEqual(expect.any(Number))
       expect(brew.derived!.yieldPercent).toEqual(expect.any(Number))
     }
     const [row] = await database.db.select({ count: sql<number>`count(*)` }).from(records).where(eq(records.entity, 'reading'))
-    expect(Number(row!.count)).toBe(23)
+    expect(Number(row!.count)).toBe(35)
+  })
+
+  it('writes a competition with one heat signed off and one under way, its cups under random blind codes', async () => {
+    const rounds = await database.db.select().from(records).where(eq(records.entity, 'round'))
+    expect(rounds.map(round => [round.data.name, Boolean(round.derived)]).sort()).toEqual([['Heat 1', true], ['Heat 2', false]])
+    const cups = await database.db.select().from(records).where(eq(records.entity, 'entry'))
+    expect(cups).toHaveLength(7)
+    expect(new Set(cups.map(cup => cup.data.code)).size).toBe(7)
+    expect(cups.every(cup => isBlindCode(String(cup.data.code)) && String(cup.data.contestant).length > 0)).toBe(true)
   })
 
   it('stores argon2id hashes that verify the printed password', async () => {

@@ -1,7 +1,7 @@
 import type { Zone } from '../../../shared/brewing'
 
-/** A brew on the chart; `label` names it (its context and date) in the tooltip. */
-export interface ChartPoint { id: string, tdsPercent: number, yieldPercent: number, current?: boolean, label?: string }
+/** A brew on the chart; `label` names it (its context and date) in the tooltip; `tag` is drawn beside it (a cup's code). */
+export interface ChartPoint { id: string, tdsPercent: number, yieldPercent: number, current?: boolean, label?: string, tag?: string }
 
 export interface ChartFrame {
   x: { min: number, max: number }
