@@ -15,16 +15,19 @@ import { pinoHttp } from 'pino-http'
 import { createAccessTokens } from './auth/tokens'
 import { requireAuth } from './middleware/auth'
 import { apiNotFound, errorHandler } from './middleware/errorHandler'
+import { noStore } from './middleware/no-store'
 import { defaultRateLimits, limiter } from './middleware/rate-limits'
 import { authRoutes } from './routes/auth.routes'
 import { devMailRoutes } from './routes/dev-mail.routes'
 import { healthRoutes } from './routes/health.routes'
+import { photoRoutes } from './routes/photos.routes'
 import { resultsRoutes } from './routes/results.routes'
 import { roundRoutes } from './routes/rounds.routes'
 import { syncRoutes } from './routes/sync.routes'
 import { teamRoutes } from './routes/teams.routes'
 import { createAuthService } from './services/auth.service'
 import { createInvitationsService } from './services/invitations.service'
+import { createPhotosService } from './services/photos.service'
 import { createResultsService } from './services/results.service'
 import { createRoundsService } from './services/rounds.service'
 import { createSyncService } from './services/sync.service'
@@ -44,7 +47,7 @@ export interface AppDeps {
   rateLimits?: Partial<RateLimits>
   /** Test seams inside the sync transaction. */
   syncHooks?: SyncHooks
-  /** The fake SMTP server's mailbox; when given, `/api/v1/dev/mail` lists it (never in production). */
+  /** The fake SMTP server's mailbox; when given, `/api/v1/dev/mail` lists it (see servesDevMail). */
   devMailbox?: Mailbox
   /** Uploaded files (photos): disk under DATA_DIR/uploads by default (server/storage/). */
   files: FileStorage
@@ -113,16 +116,18 @@ export function createApp(deps: AppDeps): Express {
   const results = createResultsService({ db, teams, mailer: deps.mailer })
 
   const api = express.Router()
+  api.use(noStore)
   api.use(healthRoutes({ pool: deps.database.pool, version: deps.version }))
   if (deps.devMailbox)
     api.use(devMailRoutes(deps.devMailbox))
   api.use(authRoutes(auth, { register: limiter(limits.register), login: limiter(limits.login), reset: limiter(limits.reset) }))
   // Signed-in routes; scoped by path so that an unknown route still answers 404, not 401.
-  api.use(['/me', '/teams', '/invitations', '/sync'], requireAuth(tokens))
+  api.use(['/me', '/teams', '/invitations', '/sync'], requireAuth(tokens, auth))
   api.use(teamRoutes(teams, invitations))
   api.use(syncRoutes(sync))
   api.use(roundRoutes(rounds))
   api.use(resultsRoutes(results))
+  api.use(photoRoutes(createPhotosService({ teams, files: deps.files })))
   app.use('/api/v1', api)
   app.use('/api', apiNotFound)
 

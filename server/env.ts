@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { isLoopback } from './loopback'
 
 const port = z.coerce.number().int().min(1).max(65535)
 
@@ -43,4 +44,13 @@ export function parseEnv(source: Record<string, string | undefined> = process.en
     DATABASE_URL: result.data.DATABASE_URL.replace(/^mariadb:/, 'mysql:'),
     PUBLIC_URL: result.data.PUBLIC_URL ?? `http://${host}:${result.data.PORT}/`,
   }
+}
+
+/**
+ * The development mail listing (`/api/v1/dev/mail`) shows reset and invitation links, so it is
+ * served only where nobody but the person at this machine can reach it: outside production, and
+ * while the app listens on loopback.
+ */
+export function servesDevMail(env: Pick<Env, 'NODE_ENV' | 'HOST'>): boolean {
+  return env.NODE_ENV !== 'production' && isLoopback(env.HOST)
 }

@@ -8,7 +8,7 @@ import pkg from '../package.json' with { type: 'json' }
 import { createApp } from './app'
 import { createDatabase } from './db/client'
 import { runMigrations } from './db/migrate'
-import { ConfigError, parseEnv } from './env'
+import { ConfigError, parseEnv, servesDevMail } from './env'
 import { createLogger } from './logger'
 import { Mailbox } from './mail/mailbox'
 import { createMailer } from './mail/mailer'
@@ -42,7 +42,7 @@ export async function serve(env: Env): Promise<RunningServer> {
     bodyLimit: env.BODY_LIMIT,
     jwtSecret: env.JWT_SECRET,
     publicUrl: env.PUBLIC_URL,
-    devMailbox: env.NODE_ENV === 'production' ? undefined : new Mailbox(path.join(env.DATA_DIR, 'mail')),
+    devMailbox: servesDevMail(env) ? new Mailbox(path.join(env.DATA_DIR, 'mail')) : undefined,
     files: createDiskStorage(path.join(env.DATA_DIR, 'uploads')),
     staticDir: existsSync(distDir) ? distDir : undefined,
   })

@@ -1,17 +1,18 @@
+import type { Env } from '../../server/env'
 import type { RunningServer } from '../../server/index'
-import type { RunningMariaDb } from './mariadb'
 import path from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { z } from 'zod'
 import { createDatabase } from '../../server/db/client'
 import { runMigrations } from '../../server/db/migrate'
 import { demoAccounts, demoPassword, demoTeamName, seedDemo } from '../../server/db/seed'
-import { ConfigError, parseEnv } from '../../server/env'
+import { ConfigError, parseEnv, servesDevMail } from '../../server/env'
 import { ListenError, serve } from '../../server/index'
 import { startFakeSmtp } from '../../server/mail/fake-smtp'
+import { createDiskStorage } from '../../server/storage/disk'
 import { ensureClientBuilt } from './build'
-import { startMariaDb } from './mariadb'
 import { loadOrCreateSecrets } from './secrets'
+import { superviseMariaDb } from './supervise'
 import { assertPortFree, SetupError } from './system'
 
 export const repoRoot = fileURLToPath(new URL('../..', import.meta.url))
@@ -27,6 +28,15 @@ const StackEnvSchema = z.object({
 })
 
 type Stop = () => Promise<void>
+
+/** Where the caught mail can be read: listed by the app on loopback in development, else only as files. */
+export function mailNotice(env: Pick<Env, 'NODE_ENV' | 'HOST'>, smtp: { port: number, dir: string }, url: string): string {
+  const kept = `Mail caught by the local SMTP fake (127.0.0.1:${smtp.port}) is kept in ${smtp.dir}, one .json and one .eml per message`
+  if (servesDevMail(env))
+    return `${kept}, and listed at ${url}api/v1/dev/mail.`
+  const why = env.NODE_ENV === 'production' ? 'in production' : `while HOST (${env.HOST}) is not a loopback address`
+  return `${kept}. The listing at /api/v1/dev/mail is off ${why}: read the files there.`
+}
 
 /**
  * Everything `npm start` (and the API half of `npm run dev`) needs: the client build, a private
@@ -63,9 +73,15 @@ export async function runStack(options: { build: boolean }): Promise<void> {
     let databaseUrl = stackEnv.DATABASE_URL
     if (!databaseUrl) {
       console.log(`Starting the private MariaDB on 127.0.0.1:${stackEnv.DB_PORT} (data in ${path.join(dataDir, 'mariadb')}) ...`)
-      const mariadb: RunningMariaDb = await startMariaDb({ dataDir: path.join(dataDir, 'mariadb'), port: stackEnv.DB_PORT })
+      const mariadb = await superviseMariaDb({ dataDir: path.join(dataDir, 'mariadb'), port: stackEnv.DB_PORT }, {
+        log: line => console.log(line),
+        onGiveUp: (reason) => {
+          console.error(`Lixivia stops: ${reason}`)
+          void shutdown(1)
+        },
+      })
       stops.push(() => mariadb.stop())
-      databaseUrl = await mariadb.provisionUser('lixivia', secrets.dbPassword, 'lixivia')
+      databaseUrl = await mariadb.current().provisionUser('lixivia', secrets.dbPassword, 'lixivia')
     }
     else {
       console.log('Using the database named by DATABASE_URL; no private MariaDB is started.')
@@ -74,7 +90,7 @@ export async function runStack(options: { build: boolean }): Promise<void> {
     const env = parseEnv({ JWT_SECRET: secrets.jwtSecret, ...process.env, DATABASE_URL: databaseUrl, DATA_DIR: dataDir, HOST: stackEnv.HOST, PORT: String(stackEnv.PORT), SMTP_PORT: String(stackEnv.SMTP_PORT) })
     await runMigrations(env.DATABASE_URL)
     const seeding = createDatabase(env.DATABASE_URL, { connectionLimit: 1 })
-    const seeded = await seedDemo(seeding.db).finally(() => seeding.pool.end())
+    const seeded = await seedDemo(seeding.db, createDiskStorage(path.join(dataDir, 'uploads'))).finally(() => seeding.pool.end())
 
     const smtp = await startFakeSmtp({ port: env.SMTP_PORT, mailDir: path.join(dataDir, 'mail') })
     stops.push(() => smtp.close())
@@ -85,7 +101,7 @@ export async function runStack(options: { build: boolean }): Promise<void> {
     console.log(`Demo sign-in (password "${demoPassword}" for each):`)
     for (const account of demoAccounts)
       console.log(`  ${account.role.padEnd(6)} ${account.name.padEnd(15)} ${account.email}`)
-    console.log(`Mail caught by the local SMTP fake (127.0.0.1:${smtp.port}) is kept in ${smtp.mailbox.dir}${env.NODE_ENV === 'production' ? '' : ` and listed at ${server.url}api/v1/dev/mail`}.`)
+    console.log(mailNotice(env, { port: smtp.port, dir: smtp.mailbox.dir }, server.url))
     console.log(`Lixivia is ready at ${server.url}  (Ctrl-C stops it)`)
   }
   catch (error) {

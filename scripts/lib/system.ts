@@ -1,5 +1,5 @@
 import { spawnSync } from 'node:child_process'
-import { existsSync } from 'node:fs'
+import { existsSync, readFileSync } from 'node:fs'
 import net from 'node:net'
 import path from 'node:path'
 
@@ -75,13 +75,30 @@ export async function freePort(): Promise<number> {
   })
 }
 
-/** True when a process with this pid exists (signal 0 only asks). */
+/** A process's state letter and parent pid, read from /proc (Linux); undefined when unreadable. */
+export function processStat(pid: number): { state: string, ppid: number } | undefined {
+  try {
+    const stat = readFileSync(`/proc/${pid}/stat`, 'utf8')
+    // The command name sits in parentheses and may hold spaces; the fields after it are fixed.
+    const [state, ppid] = stat.slice(stat.lastIndexOf(')') + 2).split(' ')
+    return state && ppid ? { state, ppid: Number(ppid) } : undefined
+  }
+  catch {
+    return undefined
+  }
+}
+
+/**
+ * True when a process with this pid exists and has not exited (signal 0 only asks). A zombie has
+ * exited: it only waits for a parent to reap it, which in a container may never come.
+ */
 export function processAlive(pid: number): boolean {
   try {
     process.kill(pid, 0)
-    return true
   }
   catch (error) {
-    return (error as NodeJS.ErrnoException).code === 'EPERM'
+    if ((error as NodeJS.ErrnoException).code !== 'EPERM')
+      return false
   }
+  return processStat(pid)?.state !== 'Z'
 }

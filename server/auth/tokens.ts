@@ -8,6 +8,8 @@ export const accessTokenType = 'at+jwt'
 export const accessTokenIssuer = 'lixivia'
 export const accessTokenAudience = 'lixivia-api'
 const algorithm = 'HS256'
+/** A token may say it was issued this far in the future (clocks drift); beyond, it was not made here. */
+const issuedAtSkewSeconds = 60
 
 export interface AccessTokens {
   sign: (userId: string) => Promise<string>
@@ -27,7 +29,7 @@ export function decodeSigningKey(secret: string): Uint8Array {
   return key
 }
 
-/** The one place access tokens are made and checked: algorithm pinned, iss, aud, sub, exp required. */
+/** The one place access tokens are made and checked: algorithm pinned, iss, aud, sub, exp required, iat not in the future. */
 export function createAccessTokens(secret: string, ttlSeconds = 15 * 60): AccessTokens {
   const key = decodeSigningKey(secret)
   const unauthenticated = (): HttpError => new HttpError(401, 'unauthenticated', 'Your session has ended. Sign in again.')
@@ -59,6 +61,9 @@ export function createAccessTokens(secret: string, ttlSeconds = 15 * 60): Access
         throw unauthenticated()
       }
       if (typeof payload.sub !== 'string' || payload.sub.length === 0)
+        throw unauthenticated()
+      // jose checks iat only against a maximum age, never that it lies in the past.
+      if (typeof payload.iat !== 'number' || payload.iat > Date.now() / 1000 + issuedAtSkewSeconds)
         throw unauthenticated()
       return payload.sub
     },

@@ -1,7 +1,9 @@
 import type { MySql2Database } from 'drizzle-orm/mysql2'
 import type { Pool } from 'mysql2/promise'
+import type { Deadlines } from './guard'
 import { drizzle } from 'drizzle-orm/mysql2'
 import mysql from 'mysql2/promise'
+import { guardPool } from './guard'
 import * as schema from './schema'
 
 export type Db = MySql2Database<typeof schema>
@@ -11,18 +13,24 @@ export interface Database {
   db: Db
 }
 
+export interface DatabaseOptions extends Partial<Deadlines> {
+  connectionLimit?: number
+}
+
 /**
  * A mysql2 pool and the Drizzle instance on it. Times are UTC on both sides so that a DATETIME
- * written by one server reads back the same on another.
+ * written by one server reads back the same on another. A server that stops answering makes
+ * requests fail within a few seconds (503, see the error handler), never hang.
  */
-export function createDatabase(url: string, options: { connectionLimit?: number } = {}): Database {
-  const pool = mysql.createPool({
+export function createDatabase(url: string, options: DatabaseOptions = {}): Database {
+  const acquireMs = options.acquireMs ?? 3_000
+  const pool = guardPool(mysql.createPool({
     uri: url,
     connectionLimit: options.connectionLimit ?? 10,
     timezone: 'Z',
-    connectTimeout: 5_000,
+    connectTimeout: acquireMs,
     enableKeepAlive: true,
-  })
+  }), { acquireMs, queryMs: options.queryMs ?? 4_000 })
   return { pool, db: drizzle(pool, { schema, mode: 'default' }) }
 }
 

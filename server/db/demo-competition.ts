@@ -1,4 +1,4 @@
-import type { DemoMutation } from './demo-records'
+import type { DemoMutation } from './demo-origin'
 import { newBlindCodes } from '../../shared/records/blind-codes'
 
 /** Builds one demo mutation; the caller's `put` gives it ids and the team. */

@@ -1,17 +1,20 @@
+import type { DemoMutation, DemoPhoto } from './demo-origin'
 import { v7 as uuidv7 } from 'uuid'
 import { brixToRefractiveIndex, defaultBrixFactor } from '../../shared/brewing'
 import { demoCompetition } from './demo-competition'
-
-/** A mutation as a phone would push it, for the demo team's first records. */
-export interface DemoMutation { mutationId: string, entity: string, op: 'put', id: string, teamId: string, data: Record<string, unknown>, baseRev: null }
+import { demoOrigin } from './demo-origin'
 
 /**
  * The demo team's records, all invented: two refractometers (one calibrated with sucrose
- * standards), a house recipe, a buying trip with two lots, a competition with a signed-off heat and
- * one under way (demo-competition.ts), and a week of brews measured against them. Returned per author, in the order they must be pushed.
+ * standards), a recipe with its versions, a buying trip with four lots cupped on a table
+ * (demo-origin.ts), a competition with a signed-off heat and one under way (demo-competition.ts), a
+ * week of brews measured against them, and a dial-in at a night market of five attempts whose last
+ * became the crew's house recipe. Returned per author, in the order they must be pushed, with the
+ * photos whose pictures the seed stores. An edit of a record pushed earlier goes with that record's
+ * rev, which the seed fills in as it pushes.
  */
-export function demoRecords(teamId: string, people: { owner: string, lead: string, member: string }, now = Date.now()): { userId: string, mutations: DemoMutation[] }[] {
-  const put = (entity: string, data: Record<string, unknown>): DemoMutation => ({ mutationId: uuidv7(), entity, op: 'put', id: uuidv7(), teamId, data, baseRev: null })
+export function demoRecords(teamId: string, people: { owner: string, lead: string, member: string }, now = Date.now()): { userId: string, mutations: DemoMutation[], photos?: DemoPhoto[] }[] {
+  const put = (entity: string, data: Record<string, unknown>, id = uuidv7()): DemoMutation => ({ mutationId: uuidv7(), entity, op: 'put', id, teamId, data, baseRev: null })
   const at = (daysAgo: number, hour: number): string => new Date(Math.floor(now / 86_400_000 - daysAgo) * 86_400_000 + hour * 3_600_000).toISOString()
 
   const prism = put('instrument', { label: 'Quayside prism', readingKind: 'nD', resolution: 0.00001, repeatability: 0.00002, brixFactor: null, notes: 'Bench refractometer with temperature compensation.' })
@@ -19,22 +22,40 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
   // Sucrose standards of 0, 1, 2 and 3 °Brix (the filter range) read close to the ICUMSA table's nD at 20 °C.
   const standards = [[0, 1.33300], [1, 1.33442], [2, 1.33587], [3, 1.33731]].map(([concentration, reading]) => ({ concentration, reading }))
   const line = put('calibration', { instrumentId: prism.id, standardUnit: 'brix', points: standards, zeroReading: 1.33300, temperatureC: 20, active: true, calibratedAt: at(6, 8), notes: 'Fresh standards, mixed by mass.' })
-  const recipe = put('recipe', { name: 'House filter', method: 'percolation', dose: 15, waterMass: 250, targetTdsPercent: 1.3, targetYieldPercent: 20.5, grindSetting: '22 clicks', contactTimeSeconds: 210, waterTemperatureC: 94, notes: 'Paper filter, 40 s bloom.' })
-  const trip = put('trip', { name: 'North Terraces buying trip', origin: 'North Terraces', startsOn: at(10, 0).slice(0, 10), endsOn: at(3, 0).slice(0, 10), notes: '' })
-  const alder = put('lot', { tripId: trip.id, farm: 'Alder Ridge Estate', region: 'North Terraces', variety: 'Typica', process: 'washed', moisturePercent: 10.8, lotSizeKg: 1380, askingPrice: 7.4, currency: 'EUR', notes: '' })
-  const copperbeck = put('lot', { tripId: trip.id, farm: 'Copperbeck Farm', region: 'South Valley', variety: 'Bourbon', process: 'natural', moisturePercent: 11.4, lotSizeKg: 690, askingPrice: 8.1, currency: 'EUR', notes: '' })
+  // A recipe is its first version's settings; each change is a version of its own (recipe-rules.ts).
+  const houseFilter = { name: 'House filter', method: 'percolation', dose: 15, waterMass: 250, targetTdsPercent: 1.3, targetYieldPercent: 20.5, grindSetting: '22 clicks', contactTimeSeconds: 210, waterTemperatureC: 94, notes: 'Paper filter, 40 s bloom.', beverageMass: 220, retainedRatio: 2, timeToleranceSeconds: null, zoneId: 'european-drip', retired: false }
+  const recipeId = uuidv7()
+  const firstVersion = put('recipeVersion', { recipeId, number: 1, basedOnId: null, reason: 'The crew\'s filter as brewed at the quay', settings: houseFilter })
+  const recipe = put('recipe', { ...houseFilter, versionId: firstVersion.id }, recipeId)
   const competition = demoCompetition(put, people, pen, at, now)
 
   const brew = (data: Record<string, unknown>, values: number[], kind: string, instrument: DemoMutation, calibration: DemoMutation | null): DemoMutation[] => {
     const made = put('brew', { context: { kind: 'quick', refId: null }, instrumentId: instrument.id, calibrationId: calibration?.id ?? null, strengthSource: calibration ? 'calibration' : 'direct', ...data })
     return [made, ...values.map(value => put('reading', { brewId: made.id, value, kind, temperatureC: null, instrumentId: instrument.id, calibrationId: calibration?.id ?? null, takenAt: made.data.brewedAt }))]
   }
-  // A cupping bowl read on the prism: the nD sucrose of the same °Brix shows (ICUMSA), TDS = 0.85 × °Brix.
+  // A cupping bowl read twice on the prism: the nD sucrose of the same °Brix shows (ICUMSA), TDS = 0.85 × °Brix.
   const nD = (tdsPercent: number): number => Math.round(brixToRefractiveIndex(tdsPercent / defaultBrixFactor) * 1e5) / 1e5
-  const bowl = (lot: DemoMutation, tds: number[], daysAgo: number) => brew({ context: { kind: 'lot', refId: lot.id }, method: 'immersion', dose: 8.25, waterMass: 150, brixFactor: 0.85, grindSetting: 'cupping', contactTimeSeconds: 240, waterTemperatureC: 93, brewedAt: at(daysAgo, 15) }, tds.map(nD), 'nD', prism, line)
+  const bowl = (lot: DemoMutation, table: DemoMutation, tds: number, brewedAt: string) => brew({ context: { kind: 'lot', refId: lot.id, tableId: table.id }, method: 'immersion', dose: 8.25, waterMass: 150, brixFactor: 0.85, grindSetting: 'Bench grinder, setting 9', contactTimeSeconds: null, waterTemperatureC: 93, brewedAt }, [nD(tds), nD(tds) + 0.00001], 'nD', prism, line)
+  const origin = demoOrigin({ put, bowl, at, people })
+
+  // The Gullstone Night Market (invented): a new grinder and the market's standpipe water. Five
+  // attempts on the House filter, one change each, until the fifth lands on the target.
+  const market = put('dialIn', { recipeId, method: 'percolation', place: 'Gullstone Night Market, stall 7', grinder: 'Flat-burr grinder, burrs two weeks old', water: 'Market standpipe through a jug filter', zoneId: null, startedAt: at(1, 17), notes: 'Queue from half past five.' })
+  const minutes = (count: number): string => new Date(Date.parse(at(1, 17)) + count * 60_000).toISOString()
+  const attempt = (step: number, change: string, grind: string, temperature: number, beverageMass: number, tds: number[]) => brew({ context: { kind: 'recipe', refId: recipeId, versionId: firstVersion.id, sessionId: market.id }, method: 'percolation', dose: 15, beverageMass, waterMass: 250, grindSetting: grind, contactTimeSeconds: 200 + step * 5, waterTemperatureC: temperature, changeNote: change, notes: '', brewedAt: minutes(step * 8) }, tds, 'tds', pen, null)
+  const attempts = [
+    attempt(1, 'The House filter as written', '22 clicks', 94, 226, [1.18, 1.19, 1.18]),
+    attempt(2, 'Two clicks finer', '20 clicks', 94, 224.5, [1.26, 1.26, 1.27]),
+    attempt(3, 'Two more clicks finer', '18 clicks', 94, 223, [1.33, 1.32, 1.33]),
+    attempt(4, 'Water up to 96 °C', '18 clicks', 96, 222.5, [1.36, 1.36, 1.35]),
+    attempt(5, 'One click finer', '17 clicks', 96, 222, [1.38, 1.38, 1.39]),
+  ]
+  const fifth = attempts[4]![0]!
+  const adopted = { ...houseFilter, grindSetting: '17 clicks', waterTemperatureC: 96, contactTimeSeconds: 225, beverageMass: 222 }
+  const secondVersion = put('recipeVersion', { recipeId, number: 2, basedOnId: firstVersion.id, reason: 'Attempt 5 of the dial-in at Gullstone Night Market: new burrs grind coarser', settings: adopted, fromBrewId: fifth.id })
 
   return [
-    { userId: people.owner, mutations: [prism, pen, line, recipe, trip, alder, copperbeck, ...competition.setUp] },
+    { userId: people.owner, mutations: [prism, pen, line, firstVersion, recipe, ...origin.setup, ...competition.setUp] },
     {
       userId: people.member,
       mutations: [
@@ -46,10 +67,10 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
       userId: people.lead,
       mutations: [
         ...brew({ context: { kind: 'recipe', refId: recipe.id }, method: 'percolation', dose: 15, beverageMass: 246, grindSetting: '21 clicks', contactTimeSeconds: 230, waterTemperatureC: 95, notes: '', brewedAt: at(3, 11) }, [1.36, 1.37], 'tds', pen, null),
-        ...bowl(alder, [1.12, 1.13, 1.12], 3),
-        ...bowl(copperbeck, [1.22, 1.21, 1.23], 3),
       ],
     },
+    { userId: people.lead, mutations: origin.lead, photos: origin.photos },
+    { userId: people.owner, mutations: origin.owner },
     {
       userId: people.owner,
       mutations: [
@@ -59,5 +80,15 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
     // The judges measure the pours; then the head judge signs Heat 1 off from the phone.
     { userId: people.member, mutations: competition.measured },
     { userId: people.lead, mutations: competition.signedOff },
+    {
+      userId: people.lead,
+      mutations: [
+        market,
+        ...attempts.flat(),
+        secondVersion,
+        put('recipe', { ...adopted, versionId: secondVersion.id }, recipeId),
+        put('houseRecipe', { method: 'percolation', recipeId }),
+      ],
+    },
   ]
 }

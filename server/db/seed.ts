@@ -1,9 +1,12 @@
+import type { FileStorage } from '../storage/files'
 import type { Db } from './client'
+import { readFile } from 'node:fs/promises'
 import { sql } from 'drizzle-orm'
 import { v7 as uuidv7 } from 'uuid'
 import { hashPassword } from '../services/passwords'
 import { createSyncService } from '../services/sync.service'
 import { createTeamsService } from '../services/teams.service'
+import { fileKey } from '../storage/files'
 import { demoRecords } from './demo-records'
 import { memberships, teams, teamSyncState, users } from './schema'
 
@@ -22,9 +25,10 @@ export const demoAccounts = [
 
 /**
  * Seeds the demo team only into an empty database; returns whether it wrote anything. Its records
- * go through the same push as a phone's, so the server derives their results as it always does.
+ * go through the same push as a phone's, so the server derives their results as it always does;
+ * the demo photos' pictures (committed under demo-photos/) go into the file store when one is given.
  */
-export async function seedDemo(db: Db): Promise<boolean> {
+export async function seedDemo(db: Db, files?: FileStorage): Promise<boolean> {
   const [row] = await db.select({ count: sql<number>`count(*)` }).from(users)
   if (Number(row?.count ?? 0) > 0)
     return false
@@ -40,11 +44,16 @@ export async function seedDemo(db: Db): Promise<boolean> {
     }
   })
   const sync = createSyncService({ db, teams: createTeamsService(db) })
-  for (const { userId, mutations } of demoRecords(teamId, ids)) {
-    const { results } = await sync.push(userId, { clientId: uuidv7(), mutations })
+  // An edit of a record pushed earlier goes with its rev, as a phone's would.
+  const revs = new Map<string, number>()
+  for (const { userId, mutations, photos = [] } of demoRecords(teamId, ids)) {
+    const { results } = await sync.push(userId, { clientId: uuidv7(), mutations: mutations.map(m => ({ ...m, baseRev: revs.get(m.id) ?? m.baseRev })) })
     const refused = results.find(result => result.status !== 'applied')
     if (refused)
       throw new Error(`The demo data was refused: ${refused.reason ?? refused.status}`)
+    results.forEach((result, index) => revs.set(mutations[index]!.id, result.rev!))
+    for (const photo of files ? photos : [])
+      await files!.put(fileKey(teamId, photo.id), await readFile(new URL(`./demo-photos/${photo.file}`, import.meta.url)), 'image/jpeg')
   }
   return true
 }

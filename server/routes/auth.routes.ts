@@ -2,21 +2,20 @@ import type { CookieOptions, Request, RequestHandler, Response } from 'express'
 import type { AuthService, Session } from '../services/auth.service'
 import { Router } from 'express'
 import { LoginBodySchema, RegisterBodySchema, ResetConfirmBodySchema, ResetRequestBodySchema } from '../../shared/schemas/auth'
+import { isLoopback } from '../loopback'
 import { refreshTtlMs } from '../services/auth.service'
 
 export const refreshCookieName = 'lixivia_refresh'
 export const refreshCookiePath = '/api/v1/auth'
 
-const loopbackHosts = new Set(['127.0.0.1', 'localhost', '::1', '[::1]'])
-
 /** httpOnly, SameSite=Strict, only sent to the auth routes; Secure everywhere but loopback. */
 function cookieOptions(req: Request): CookieOptions {
-  return { httpOnly: true, sameSite: 'strict', path: refreshCookiePath, secure: req.secure || !loopbackHosts.has(req.hostname) }
+  return { httpOnly: true, sameSite: 'strict', path: refreshCookiePath, secure: req.secure || !isLoopback(req.hostname) }
 }
 
 function sendSession(req: Request, res: Response, session: Session, status: number): void {
   res.cookie(refreshCookieName, session.refreshToken, { ...cookieOptions(req), maxAge: refreshTtlMs })
-  res.status(status).set('Cache-Control', 'no-store').json({ user: session.user, accessToken: session.accessToken })
+  res.status(status).json({ user: session.user, accessToken: session.accessToken })
 }
 
 export interface AuthLimits { register: RequestHandler, login: RequestHandler, reset: RequestHandler }
@@ -46,9 +45,11 @@ export function authRoutes(auth: AuthService, limits: AuthLimits): Router {
     res.clearCookie(refreshCookieName, cookieOptions(req))
     res.status(204).end()
   })
-  router.post('/auth/password-reset/request', limits.reset, async (req, res) => {
-    await auth.requestReset(ResetRequestBodySchema.parse(req.body).email, ctx(req))
+  router.post('/auth/password-reset/request', limits.reset, (req, res) => {
+    const { email } = ResetRequestBodySchema.parse(req.body)
     res.status(202).json({ status: 'sent-if-known' })
+    // The look-up, the link and the mail come after the answer, which is the same for every address.
+    auth.requestReset(email, ctx(req)).catch((error: unknown) => req.log.error({ err: error }, 'password reset request failed'))
   })
   router.post('/auth/password-reset/confirm', limits.reset, async (req, res) => {
     await auth.confirmReset(ResetConfirmBodySchema.parse(req.body), ctx(req))

@@ -7,7 +7,7 @@ const MailIdParams = z.object({ id: z.string().regex(/^[\w-]{1,64}$/, 'is not a 
 
 /**
  * Development only: the messages the local fake SMTP server caught (invitations, reset links).
- * Never mounted when NODE_ENV is production.
+ * Mounted only outside production while the app listens on loopback (servesDevMail in env.ts).
  */
 export function devMailRoutes(mailbox: Mailbox): Router {
   const router = Router()

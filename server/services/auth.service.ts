@@ -11,6 +11,12 @@ import { audit } from './audit.service'
 import { hashPassword, verifyPassword } from './passwords'
 
 export const refreshTtlMs = 30 * 24 * 60 * 60 * 1000
+/**
+ * How long a used refresh token still works. Two tabs refreshing at once send the same cookie, and
+ * a phone that loses the answer in a tunnel sends it again: neither is theft, so within this window
+ * the token yields a new one of the same family. Later, it counts as reuse and ends the family.
+ */
+export const refreshGraceMs = 30_000
 const resetTtlMs = 60 * 60 * 1000
 
 export interface Session {
@@ -25,6 +31,9 @@ interface Context { ip?: string }
 const wrongCredentials = (): HttpError => new HttpError(401, 'wrong_credentials', 'Wrong e-mail or password.')
 const sessionEnded = (): HttpError => new HttpError(401, 'unauthenticated', 'Your session has ended. Sign in again.')
 const isDuplicate = (error: unknown): boolean => (error as { errno?: number, cause?: { errno?: number } })?.errno === 1062 || (error as { cause?: { errno?: number } })?.cause?.errno === 1062
+
+/** Ends every unused reset link of an account: a newer link, or a reset done, supersedes them. */
+const expireResets = (tx: Pick<Db, 'update'>, userId: string) => tx.update(passwordResets).set({ expiresAt: new Date() }).where(and(eq(passwordResets.userId, userId), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, new Date())))
 
 /** A hash to verify against when the e-mail is unknown, so both failures take the same time. */
 let decoyHash: Promise<string> | undefined
@@ -72,6 +81,13 @@ export function createAuthService(deps: { db: Db, tokens: AccessTokens, mailer: 
       return startSession({ id: row.id, email: row.email, name: row.name })
     },
 
+    /** Throws 401 when the account a valid access token names has been deleted since it was issued. */
+    async assertAccount(userId: string): Promise<void> {
+      const [row] = await db.select({ id: users.id }).from(users).where(eq(users.id, userId)).limit(1)
+      if (!row)
+        throw new HttpError(401, 'unauthenticated', 'This account no longer exists. Sign in again.')
+    },
+
     /** Rotates: the presented token is used up and the next one of its family is issued. */
     async refresh(presented: string | undefined, ctx: Context): Promise<Session> {
       if (!presented)
@@ -80,9 +96,11 @@ export function createAuthService(deps: { db: Db, tokens: AccessTokens, mailer: 
         const [token] = await tx.select().from(refreshTokens).where(eq(refreshTokens.tokenHash, hashToken(presented))).for('update')
         if (!token || token.revokedAt || token.expiresAt.getTime() <= Date.now())
           return { kind: 'ended' as const }
-        if (token.usedAt)
+        if (token.usedAt && Date.now() - token.usedAt.getTime() > refreshGraceMs)
           return { kind: 'reused' as const, token }
-        await tx.update(refreshTokens).set({ usedAt: new Date() }).where(eq(refreshTokens.id, token.id))
+        // Within the grace a used token gets another token of its family: see refreshGraceMs.
+        if (!token.usedAt)
+          await tx.update(refreshTokens).set({ usedAt: new Date() }).where(eq(refreshTokens.id, token.id))
         const [user] = await tx.select({ id: users.id, email: users.email, name: users.name }).from(users).where(eq(users.id, token.userId))
         return user ? { kind: 'rotated' as const, token, user } : { kind: 'ended' as const }
       })
@@ -107,16 +125,25 @@ export function createAuthService(deps: { db: Db, tokens: AccessTokens, mailer: 
       await audit(db, { action: 'auth.signed_out', actorId: token.userId, subjectId: token.userId, ip: ctx.ip })
     },
 
-    /** Always succeeds from the outside, so nobody can learn which addresses have accounts. */
+    /**
+     * Mails a one-time link to a known address and makes every older link of that account useless.
+     * The route answers before calling it, so nobody can learn from the answer or its timing which
+     * addresses have accounts.
+     */
     async requestReset(email: string, ctx: Context): Promise<void> {
-      const [user] = await db.select().from(users).where(eq(users.email, email)).limit(1)
+      const [user] = await db.select({ id: users.id, email: users.email, name: users.name }).from(users).where(eq(users.email, email)).limit(1)
       if (!user) {
         await audit(db, { action: 'password_reset.requested', detail: { known: false }, ip: ctx.ip })
         return
       }
       const token = newToken()
-      await db.insert(passwordResets).values({ id: uuidv7(), userId: user.id, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + resetTtlMs) })
-      await audit(db, { action: 'password_reset.requested', subjectId: user.id, detail: { known: true }, ip: ctx.ip })
+      await db.transaction(async (tx) => {
+        // The account's row serialises two requests, so only the newest link stays valid.
+        await tx.select({ id: users.id }).from(users).where(eq(users.id, user.id)).for('update')
+        await expireResets(tx, user.id)
+        await tx.insert(passwordResets).values({ id: uuidv7(), userId: user.id, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + resetTtlMs) })
+        await audit(tx, { action: 'password_reset.requested', subjectId: user.id, detail: { known: true }, ip: ctx.ip })
+      })
       const link = new URL(`/reset-password?token=${token}`, deps.publicUrl).toString()
       await deps.mailer.send({
         to: user.email,
@@ -128,15 +155,22 @@ export function createAuthService(deps: { db: Db, tokens: AccessTokens, mailer: 
     },
 
     async confirmReset(body: { token: string, password: string }, ctx: Context): Promise<void> {
+      const tokenHash = hashToken(body.token)
+      const valid = and(eq(passwordResets.tokenHash, tokenHash), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, new Date()))
       const userId = await db.transaction(async (tx) => {
-        const [reset] = await tx.select().from(passwordResets).where(and(eq(passwordResets.tokenHash, hashToken(body.token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, new Date()))).for('update')
-        if (!reset)
+        const [found] = await tx.select({ userId: passwordResets.userId }).from(passwordResets).where(valid)
+        if (!found)
           return undefined
-        const [user] = await tx.select({ email: users.email }).from(users).where(eq(users.id, reset.userId))
-        if (user && body.password.trim().toLowerCase() === user.email)
+        // The account's row first, as requestReset locks it, then the link again: it may have been used meanwhile.
+        const [user] = await tx.select({ email: users.email }).from(users).where(eq(users.id, found.userId)).for('update')
+        const [reset] = await tx.select().from(passwordResets).where(valid).for('update')
+        if (!user || !reset)
+          return undefined
+        if (body.password.trim().toLowerCase() === user.email)
           throw new HttpError(400, 'invalid_input', 'password: must not be the same as the e-mail address')
         await tx.update(users).set({ passwordHash: await hashPassword(body.password), updatedAt: new Date() }).where(eq(users.id, reset.userId))
         await tx.update(passwordResets).set({ usedAt: new Date() }).where(eq(passwordResets.id, reset.id))
+        await expireResets(tx, reset.userId)
         // A new password ends every session: whoever knew the old one is signed out.
         await tx.update(refreshTokens).set({ revokedAt: new Date() }).where(and(eq(refreshTokens.userId, reset.userId), isNull(refreshTokens.revokedAt)))
         return reset.userId

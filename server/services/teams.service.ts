@@ -81,8 +81,11 @@ export function createTeamsService(db: Db) {
     async rename(teamId: string, name: string, actor: Actor): Promise<TeamResponse> {
       if (!can.editTeam(await roleIn(teamId, actor.userId)))
         throw forbidden('Only an owner can change the team\'s settings.')
-      await db.update(teams).set({ name, updatedAt: new Date() }).where(eq(teams.id, teamId))
-      await audit(db, { action: 'team.renamed', actorId: actor.userId, teamId, subjectId: teamId, detail: { name }, ip: actor.ip })
+      // The new name and its audit row land together or not at all.
+      await db.transaction(async (tx) => {
+        await tx.update(teams).set({ name, updatedAt: new Date() }).where(eq(teams.id, teamId))
+        await audit(tx, { action: 'team.renamed', actorId: actor.userId, teamId, subjectId: teamId, detail: { name }, ip: actor.ip })
+      })
       return teamFor(teamId, actor.userId)
     },
 

@@ -6,8 +6,9 @@ import type { Mutation, MutationResult } from '../../shared/schemas/sync'
 import type { Touch } from './derive'
 import type { RecordBatch, RecordRow } from './store'
 import { BrewingInputError } from '../../shared/brewing'
+import { recipeRefusal } from '../../shared/records/recipe-rules'
 import { definitionOf } from '../../shared/records/registry'
-import { frozenMessage, refusalOf, roundIdOf } from '../../shared/records/rules'
+import { frozenMessage, identityRefusal, refusalOf, roundIdOf } from '../../shared/records/rules'
 import { entityDataSchemas } from '../../shared/schemas/entities'
 import { deriveCalibration, rederive } from './derive'
 import { codeClash, freezeRound } from './judging'
@@ -99,7 +100,7 @@ export async function applyMutation(ctx: ApplyContext, m: Mutation): Promise<Mut
   const data = parsed.data
   const fields: Record<string, unknown> = data
   const authorId = await authorOf(batch, m.entity, data, current, actor.userId)
-  const refusal = refusalOf(actor, { entity: m.entity, op: current ? 'edit' : 'create', authorId, reason: m.reason })
+  const refusal = refusalOf(actor, { entity: m.entity, op: current ? 'edit' : 'create', authorId, reason: m.reason }) ?? identityRefusal(m.entity, m.id, fields, current?.createdBy ?? actor.userId)
   if (refusal)
     return rejected(refusal)
   const changed = current ? Object.keys(m.data).filter(key => key in fields && !same(fields[key], current.data[key])) : Object.keys(fields)
@@ -119,6 +120,13 @@ export async function applyMutation(ctx: ApplyContext, m: Mutation): Promise<Mut
   }
   if (m.entity === 'signoff' && !current)
     return signOff(ctx, m, data as EntityData<'signoff'>)
+  const inTeam: RecordLookup = async (entity, id) => {
+    const row = await batch.find(entity, id)
+    return row && row.teamId === m.teamId && !row.deletedAt ? row : undefined
+  }
+  const inconsistent = await recipeRefusal(m.entity, m.id, data, current?.data as EntityData<EntityName> | undefined, inTeam)
+  if (inconsistent)
+    return rejected(inconsistent)
   if (await frozen(batch, m.entity, m.id, fields, ...(current ? [current.data] : [])))
     return rejected(frozenMessage)
   if (m.entity === 'entry' && (changed.includes('code') || changed.includes('roundId'))) {

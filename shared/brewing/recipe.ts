@@ -21,7 +21,7 @@ export interface Recipe {
   beverageMass: number
   /** Grams of water to brew with. */
   waterMass: number
-  /** Grams of water per gram of coffee. */
+  /** Brew ratio: grams of beverage per gram of coffee (ratio.ts), EY / TDS of the target. */
   brewRatio: number
   retainedRatio: number
 }
@@ -57,7 +57,7 @@ export function solveRecipe(input: RecipeInput): Recipe {
       ? requirePositive(input.dose, 'dose', 'The dose')
       : requirePositive(input.beverageMass as number, 'beverageMass', 'The beverage mass') / (waterPerDose - retainedRatio)
     const waterMass = waterPerDose * dose
-    return { method: input.method, dose, beverageMass: waterMass - retainedRatio * dose, waterMass, brewRatio: waterPerDose, retainedRatio }
+    return { method: input.method, dose, beverageMass: waterMass - retainedRatio * dose, waterMass, brewRatio: ey / tds, retainedRatio }
   }
 
   const beveragePerDose = ey / tds
@@ -66,5 +66,5 @@ export function solveRecipe(input: RecipeInput): Recipe {
     : requirePositive(input.beverageMass as number, 'beverageMass', 'The beverage mass') / beveragePerDose
   const beverageMass = beveragePerDose * dose
   const waterMass = beverageMass + retainedRatio * dose
-  return { method: input.method, dose, beverageMass, waterMass, brewRatio: waterMass / dose, retainedRatio }
+  return { method: input.method, dose, beverageMass, waterMass, brewRatio: ey / tds, retainedRatio }
 }

@@ -1,4 +1,5 @@
 import { BrewingInputError, requireFinite, requirePositive, requireTdsPercent } from './errors'
+import { formatRatio } from './ratio'
 import { formatTds, formatYield, roundHalfUp } from './rounding'
 
 export interface Range { min: number, max: number }
@@ -11,6 +12,8 @@ export interface Zone {
   yieldPercent: Range
   /** Where the numbers come from, shown beside the chart. */
   source: string
+  /** A cupping zone judges bowls brewed to a fixed protocol: its verdict never gives brewing advice. */
+  purpose?: 'cupping'
 }
 
 /** Published drip standards, and an espresso zone from common practice. */
@@ -20,6 +23,21 @@ export const zonePresets: readonly Zone[] = [
   { id: 'nordic-drip', name: 'Nordic drip standard', tdsPercent: { min: 1.3, max: 1.55 }, yieldPercent: { min: 18, max: 22 }, source: 'Norwegian brewing standard (sources give 1.50 or 1.55 as the upper strength)' },
   { id: 'espresso', name: 'Espresso', tdsPercent: { min: 8, max: 12 }, yieldPercent: { min: 18, max: 22 }, source: 'Common practice; no published standard' },
 ]
+
+/**
+ * Cupping bowls: 18–22 % extraction as for filter brews, and the strength that range gives in a
+ * full-immersion bowl at the SCA cupping ratio of 8.25 g ± 0.25 g per 150 mL (0.95 %TDS at 8.0 g
+ * and 18 %, 1.23 %TDS at 8.5 g and 22 %, rounded out to 1.25). Kept apart from the presets a phone or a team chooses
+ * from: it judges every lot's bowl, whatever the team's default.
+ */
+export const cuppingZone: Zone = {
+  id: 'cupping',
+  name: 'Cupping zone',
+  tdsPercent: { min: 0.95, max: 1.25 },
+  yieldPercent: { min: 18, max: 22 },
+  source: 'Common practice: 18–22 % extraction at the SCA cupping ratio (8.25 g ± 0.25 g per 150 mL) in full immersion',
+  purpose: 'cupping',
+}
 
 /** A zone preset by id, or undefined. */
 export const findZonePreset = (id: string): Zone | undefined => zonePresets.find(zone => zone.id === id)
@@ -67,14 +85,23 @@ export interface ZoneVerdict {
   inZone: boolean
   /** A few words for the result panel, e.g. "Under-extracted and weak". */
   headline: string
-  /** What to change, extraction first (it moves strength too), then the ratio. */
+  /** What to change, with its size: extraction first (it moves strength too), then the ratio. */
   adjustments: string[]
+  /** Extraction points to gain (+) or lose (−) to reach the middle of the zone's extraction range. */
+  yieldGap: number
   /**
    * Grams of beverage per gram of coffee now, and the one that would land in the middle of the
    * zone's strength at the current extraction (strength = EY / ratio).
    */
   beverageRatio: { current: number, target: number }
 }
+
+const cuppingHeadlines: Record<Position, Record<Position, string>> = {
+  low: { low: 'Below the cupping zone in strength and extraction', in: 'Below the cupping zone in extraction', high: 'Stronger, but extracted below the cupping zone' },
+  in: { low: 'Below the cupping zone in strength', in: 'Inside the cupping zone', high: 'Above the cupping zone in strength' },
+  high: { low: 'Weaker, but extracted above the cupping zone', in: 'Above the cupping zone in extraction', high: 'Above the cupping zone in strength and extraction' },
+}
+const cuppingNote = 'A cupping bowl is compared, not corrected: every bowl on the table follows the same protocol.'
 
 const place = (value: number, range: Range): Position => (value < range.min ? 'low' : value > range.max ? 'high' : 'in')
 
@@ -86,7 +113,8 @@ const headlines: Record<Position, Record<Position, string>> = {
 
 /**
  * Where a brew sits against a zone and what to change next. Extraction is moved by grind, contact
- * time and temperature; strength at a given extraction is moved by the brew ratio.
+ * time and temperature; strength at a given extraction is moved by the brew ratio. A cupping zone
+ * only says where a bowl sits: its bowls follow a fixed protocol and are never dialled in.
  * @param zone - the target zone
  * @param measured - the brew's results
  * @param measured.tdsPercent - strength, %TDS
@@ -101,22 +129,30 @@ export function zoneVerdict(zone: Zone, measured: { tdsPercent: number, yieldPer
   const extraction = place(roundHalfUp(ey, 1), zone.yieldPercent)
   const targetTds = (zone.tdsPercent.min + zone.tdsPercent.max) / 2
   const beverageRatio = { current: ey / tds, target: ey / targetTds }
+  const inZone = strength === 'in' && extraction === 'in'
+  const targetEy = (zone.yieldPercent.min + zone.yieldPercent.max) / 2
+  const yieldGap = targetEy - ey
+  // A cupping bowl is read, never adjusted: no brewing advice for it.
+  if (zone.purpose === 'cupping')
+    return { strength, extraction, inZone, headline: cuppingHeadlines[extraction][strength], adjustments: [cuppingNote], yieldGap, beverageRatio }
+  const gapWords = `about ${formatYield(Math.abs(yieldGap))} points (from ${formatYield(ey)} % to ${formatYield(targetEy)} %, the middle of the zone)`
+  const ratios = `brew ratio about ${formatRatio(beverageRatio.target)} instead of ${formatRatio(beverageRatio.current)} (grams of beverage per gram of coffee)`
 
   const adjustments: string[] = []
   if (extraction === 'low')
-    adjustments.push('Extract more: grind finer, lengthen the contact time, or brew a little hotter.')
+    adjustments.push(`Raise the extraction ${gapWords}: grind finer, lengthen the contact time, or brew a little hotter.`)
   else if (extraction === 'high')
-    adjustments.push('Extract less: grind coarser, shorten the contact time, or brew a little cooler.')
+    adjustments.push(`Lower the extraction ${gapWords}: grind coarser, shorten the contact time, or brew a little cooler.`)
   if (strength === 'low')
-    adjustments.push(`Make it stronger with less water per gram of coffee: about ${beverageRatio.target.toFixed(1)} g of beverage per gram instead of ${beverageRatio.current.toFixed(1)}.`)
+    adjustments.push(`Make it stronger with less beverage per gram of coffee: ${ratios}.`)
   else if (strength === 'high')
-    adjustments.push(`Make it weaker with more water per gram of coffee: about ${beverageRatio.target.toFixed(1)} g of beverage per gram instead of ${beverageRatio.current.toFixed(1)}, or add water after brewing.`)
+    adjustments.push(`Make it weaker with more beverage per gram of coffee: ${ratios}, or add water after brewing.`)
   if (adjustments.length === 0)
     adjustments.push('Keep this recipe: strength and extraction are both inside the zone.')
   else if (extraction !== 'in' && strength !== 'in')
     adjustments.push('Change the extraction first and measure again: it moves the strength too.')
 
-  return { strength, extraction, inZone: strength === 'in' && extraction === 'in', headline: headlines[extraction][strength], adjustments, beverageRatio }
+  return { strength, extraction, inZone, headline: headlines[extraction][strength], adjustments, yieldGap, beverageRatio }
 }
 
 /** A zone's ranges as a person reads them, at display precision: "1.15–1.35 %TDS · 18.0–22.0 % EY". */

@@ -19,6 +19,8 @@ export interface EntityDefinition<E extends EntityName> {
    * reading is part of its brew: adding one changes the brew's result).
    */
   governedBy: 'self' | 'parent'
+  /** What a record governed by its parent is part of, for messages ("brews"); brews when not given. */
+  partOf?: string
   /** A teammate's record is changed only with a reason, which its history keeps. */
   reasonForTeammate: boolean
   /** The record this one belongs to (kept in an indexed column on the server). */
@@ -45,7 +47,7 @@ export const entities: Definitions = {
     title: data => `${data.method.charAt(0).toUpperCase()}${data.method.slice(1)} brew of ${data.brewedAt.slice(0, 10)}`,
     reasonForTeammate: true,
     parent: data => contextRef(data.context),
-    links: data => [contextRef(data.context), ref('calibration', data.calibrationId)].filter(r => r !== null),
+    links: data => [contextRef(data.context), ref('calibration', data.calibrationId), data.context.kind === 'lot' ? ref('cuppingTable', data.context.tableId) : null, ref('recipeVersion', data.context.versionId), ref('dialIn', data.context.sessionId)].filter(r => r !== null),
   },
   reading: { ...child<'reading'>(data => ref('brew', data.brewId)), ...noun('reading'), title: data => `Reading ${data.value}`, appendOnly: true, governedBy: 'parent', reasonForTeammate: true },
   // A competition is set up by a lead or an owner (the head judge); members measure its pours.
@@ -54,11 +56,41 @@ export const entities: Definitions = {
   entry: { ...child<'entry'>(data => ref('round', data.roundId)), ...noun('cup'), title: data => `Cup ${data.code}`, writers: 'lead' },
   trip: { ...standalone, ...noun('trip'), title: data => data.name },
   lot: { ...child<'lot'>(data => ref('trip', data.tripId)), ...noun('lot'), title: data => data.farm },
-  recipe: { ...standalone, ...noun('recipe'), title: data => data.name },
+  recipe: { ...standalone, ...noun('recipe'), title: data => data.name, links: data => [ref('recipeVersion', data.versionId)].filter(r => r !== null) },
   zone: { ...standalone, ...noun('zone'), title: data => data.name },
   zoneDefault: { ...standalone, ...noun('default zone'), title: data => `Default ${data.family} zone`, writers: 'lead', appendOnly: true },
   signoff: { ...child<'signoff'>(data => ref('round', data.roundId)), ...noun('sign-off'), title: () => 'Sign-off of the round', writers: 'lead', appendOnly: true },
   zeroCheck: { ...child<'zeroCheck'>(data => ref('instrument', data.instrumentId)), ...noun('zero check'), title: data => `Zero check of ${data.checkedAt.slice(0, 10)}`, appendOnly: true },
+  cuppingTable: {
+    ...plain,
+    ...noun('cupping table'),
+    title: data => `Cupping table of ${data.heldOn}${data.place ? ` at ${data.place}` : ''}`,
+    parent: data => ref('trip', data.tripId),
+    links: data => [ref('trip', data.tripId), ...data.lotIds.map(id => ref('lot', id)), ref('scoreSheet', data.scoreSheetId)].filter(r => r !== null),
+  },
+  // The team's score sheets are set up by a lead, like its default zones.
+  scoreSheet: { ...standalone, ...noun('score sheet'), title: data => data.name, writers: 'lead' },
+  score: {
+    ...plain,
+    ...noun('score'),
+    title: () => 'Cupping score',
+    reasonForTeammate: true,
+    parent: data => ref('cuppingTable', data.tableId),
+    links: data => [ref('cuppingTable', data.tableId), ref('lot', data.lotId)].filter(r => r !== null),
+  },
+  photo: {
+    ...plain,
+    ...noun('photo'),
+    title: data => data.caption || `Photo of ${data.takenAt.slice(0, 10)}`,
+    parent: data => ref('brew', data.brewId) ?? ref('lot', data.lotId) ?? ref('trip', data.tripId),
+    links: data => [ref('trip', data.tripId), ref('lot', data.lotId), ref('brew', data.brewId)].filter(r => r !== null),
+  },
+  // A version is part of its recipe (who may add one is decided by the recipe's author), and carries
+  // its own reason. Its recipe is checked by the recipe rules, not as a link: a new recipe's first
+  // version reaches the server before the recipe that names it.
+  recipeVersion: { ...plain, ...noun('recipe version'), title: data => `Version ${data.number}`, appendOnly: true, governedBy: 'parent', partOf: 'recipes', parent: data => ref('recipe', data.recipeId), links: () => [] },
+  houseRecipe: { ...standalone, ...noun('house recipe'), title: data => `House ${data.method} recipe`, writers: 'lead', appendOnly: true, links: data => [ref('recipe', data.recipeId)].filter(r => r !== null) },
+  dialIn: { ...standalone, ...noun('dial-in session'), title: data => `Dial-in at ${data.place}`, links: data => [ref('recipe', data.recipeId)].filter(r => r !== null) },
 }
 
 /**

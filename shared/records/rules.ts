@@ -1,5 +1,6 @@
 import type { Role } from '../schemas/auth'
 import type { EntityData, EntityName } from '../schemas/entities'
+import { v5 as uuidv5 } from 'uuid'
 import { definitionOf } from './registry'
 
 // Who may do what (DESIGN.md), in one place: the server enforces these rules on every route and
@@ -20,6 +21,8 @@ export const can = {
   /** A round's results: the head judge any time, the whole team once it is signed off. */
   readResults: (role: Role, signedOff: boolean) => role === 'owner' || role === 'lead' || signedOff,
   sendResults: (role: Role) => role === 'owner' || role === 'lead',
+  /** Photos and other files go with the records a person may write: not for viewers. */
+  uploadFiles: (role: Role) => role !== 'viewer',
 }
 
 export interface Actor { userId: string, role: Role }
@@ -56,7 +59,7 @@ export function refusalOf(actor: Actor, change: RecordChange): string | null {
   const teammate = change.authorId !== null && change.authorId !== actor.userId
   if (teammate && actor.role === 'member') {
     return definition.governedBy === 'parent'
-      ? `Members can add ${definition.noun.many} only to their own brews; ask a lead to correct this one.`
+      ? `Members can add ${definition.noun.many} only to their own ${definition.partOf ?? 'brews'}; ask a lead to correct this one.`
       : 'Members can change only the records they made; ask a lead to correct this one.'
   }
   if (reasonRequired(actor, change) && !change.reason?.trim())
@@ -96,4 +99,24 @@ export async function roundIdOf(entity: EntityName, id: string, data: Record<str
   if (kind !== 'entry' || !refId)
     return null
   return (await lookup('entry', refId))?.data.roundId ?? null
+}
+
+// A fixed namespace for the ids of scores (a UUID v5 needs one); never change it.
+const scoreNamespace = '6f1d7c52-3a8e-4b0f-9c41-2d5e8a7b9c10'
+
+/**
+ * The id of a taster's score of a lot on a cupping table: the same on every phone, so one taster
+ * has one score per lot per table, and a second phone's copy meets the first as an edit.
+ */
+export function scoreIdOf(tableId: string, lotId: string, tasterId: string): string {
+  return uuidv5(`${tableId.toLowerCase()}/${lotId.toLowerCase()}/${tasterId.toLowerCase()}`, scoreNamespace)
+}
+
+/** Why a new record cannot have this id, or null: a score's id must come from its table, lot and taster. */
+export function identityRefusal(entity: EntityName, id: string, data: Record<string, unknown>, authorId: string): string | null {
+  if (entity !== 'score' || typeof data.tableId !== 'string' || typeof data.lotId !== 'string')
+    return null
+  return id.toLowerCase() === scoreIdOf(data.tableId, data.lotId, authorId)
+    ? null
+    : 'A taster keeps one score per lot on a table: this score\'s id does not come from its table, lot and taster.'
 }

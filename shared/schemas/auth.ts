@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { IdSchema, nameText } from './primitives'
+import { IdSchema, nameText, storableText } from './primitives'
 
 export { IdSchema }
 
@@ -7,7 +7,8 @@ export const RoleSchema = z.enum(['owner', 'lead', 'member', 'viewer'])
 export type Role = z.infer<typeof RoleSchema>
 
 export const EmailSchema = z.string({ error: 'must be an e-mail address' }).trim().toLowerCase().max(254, 'must be at most 254 characters').pipe(z.email({ error: 'must be an e-mail address' }))
-export const PasswordSchema = z.string({ error: 'must be text' }).min(10, 'must be at least 10 characters').max(256, 'must be at most 256 characters')
+/** Never trimmed; a lone surrogate would hash the same as U+FFFD, so it is refused like a NUL. */
+export const PasswordSchema = storableText().min(10, 'must be at least 10 characters').max(256, 'must be at most 256 characters')
 export const PersonNameSchema = nameText(120)
 export const TeamNameSchema = nameText(120)
 /** One-time tokens travel as 43 characters of base64url (32 random bytes). */

@@ -72,6 +72,13 @@ export const derivedSchemas = {
   zoneDefault: z.null(),
   signoff: z.null(),
   zeroCheck: z.null(),
+  cuppingTable: z.null(),
+  scoreSheet: z.null(),
+  score: z.null(),
+  photo: z.null(),
+  recipeVersion: z.null(),
+  houseRecipe: z.null(),
+  dialIn: z.null(),
 } as const satisfies Record<EntityName, z.ZodType>
 
 export type EntityDerived<E extends EntityName> = z.infer<(typeof derivedSchemas)[E]>

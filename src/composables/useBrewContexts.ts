@@ -10,7 +10,7 @@ import { useLiveQuery } from './useLiveQuery'
 import { zoneOf } from './useTeamZones'
 
 const byId = <T extends { id: string }>(rows: T[]): Map<string, T> => new Map(rows.map(row => [row.id, row]))
-const empty = { entries: [], rounds: [], events: [], lots: [], recipes: [], zones: [], defaults: [] }
+const empty = { entries: [], rounds: [], events: [], lots: [], recipes: [], zones: [], defaults: [], tables: [], recipeVersions: [], dialIns: [] }
 
 /**
  * Every brew's context and verdict zone, for the team's lists, charts and exports: the records
@@ -21,7 +21,7 @@ export function useBrewContexts(teamId: Ref<string | null>) {
     if (!teamId.value)
       return empty
     const team = teamId.value
-    const [entries, rounds, events, lots, recipes, zones, defaults] = await Promise.all([
+    const [entries, rounds, events, lots, recipes, zones, defaults, tables, recipeVersions, dialIns] = await Promise.all([
       db.entries.where('teamId').equals(team).toArray(),
       db.rounds.where('teamId').equals(team).toArray(),
       db.events.where('teamId').equals(team).toArray(),
@@ -29,9 +29,12 @@ export function useBrewContexts(teamId: Ref<string | null>) {
       db.recipes.where('teamId').equals(team).toArray(),
       db.zones.where('teamId').equals(team).toArray(),
       db.zoneDefaults.where('teamId').equals(team).toArray(),
+      db.cuppingTables.where('teamId').equals(team).toArray(),
+      db.recipeVersions.where('teamId').equals(team).toArray(),
+      db.dialIns.where('teamId').equals(team).toArray(),
     ])
-    return { entries, rounds, events, lots, recipes, zones, defaults: defaults.sort((a, b) => (a.rev ?? Infinity) - (b.rev ?? Infinity) || a.createdAt.localeCompare(b.createdAt)) }
-  }, empty as { entries: LocalRecord<'entry'>[], rounds: LocalRecord<'round'>[], events: LocalRecord<'event'>[], lots: LocalRecord<'lot'>[], recipes: LocalRecord<'recipe'>[], zones: LocalRecord<'zone'>[], defaults: LocalRecord<'zoneDefault'>[] }, teamId)
+    return { entries, rounds, events, lots, recipes, zones, tables, defaults: defaults.sort((a, b) => (a.rev ?? Infinity) - (b.rev ?? Infinity) || a.createdAt.localeCompare(b.createdAt)), recipeVersions, dialIns }
+  }, empty as { entries: LocalRecord<'entry'>[], rounds: LocalRecord<'round'>[], events: LocalRecord<'event'>[], lots: LocalRecord<'lot'>[], recipes: LocalRecord<'recipe'>[], zones: LocalRecord<'zone'>[], defaults: LocalRecord<'zoneDefault'>[], tables: LocalRecord<'cuppingTable'>[], recipeVersions: LocalRecord<'recipeVersion'>[], dialIns: LocalRecord<'dialIn'>[] }, teamId)
 
   const found = computed<ContextRecords>(() => {
     const teamZones = new Map(rows.value.zones.filter(z => !z.deletedAt).flatMap((record) => {
@@ -46,6 +49,9 @@ export function useBrewContexts(teamId: Ref<string | null>) {
       recipes: byId(rows.value.recipes),
       zones: id => findZonePreset(id) ?? teamZones.get(id),
       defaults: rows.value.defaults,
+      tables: byId(rows.value.tables),
+      recipeVersions: byId(rows.value.recipeVersions),
+      dialIns: byId(rows.value.dialIns),
     }
   })
 

@@ -1,14 +1,17 @@
 import type { InjectionKey, Ref } from 'vue'
-import type { BrewInput, BrewMethod, BrewResult, BrewUncertainty, ReadingKind, ReadingsSummary, Zone, ZoneVerdict } from '../../shared/brewing'
+import type { BrewInput, BrewMethod, BrewRatio, BrewResult, BrewUncertainty, ReadingKind, ReadingsSummary, Zone, ZoneVerdict } from '../../shared/brewing'
 import type { BrewContext } from '../../shared/schemas/entities'
 import type { JudgedZone } from './brewContexts'
 import type { Gauge } from './useGauges'
 import { computed, inject, reactive, watch } from 'vue'
-import { brewRatio, brewUncertainty, computeBrew, defaultRetainedRatio, summarizeReadings, zoneVerdict } from '../../shared/brewing'
+import { brewRatioOf, brewUncertainty, computeBrew, defaultRetainedRatio, summarizeReadings, zoneVerdict } from '../../shared/brewing'
 import { readDuration, readNumber } from '../forms/numbers'
 
-/** One reading in the form: stored ones carry their id and can only be set aside, never removed. */
-export interface BrewFormReading { value: number, id?: string, excluded: boolean }
+/**
+ * One reading in the form: stored ones carry their id and can only be set aside, never removed.
+ * `kept`: the person chose to keep a reading Dixon's Q flags, which is otherwise left out.
+ */
+export interface BrewFormReading { value: number, id?: string, excluded: boolean, kept?: boolean }
 
 /** What the person types, as typed: numbers stay text until they are read. */
 export interface BrewForm {
@@ -32,6 +35,8 @@ export interface BrewForm {
   waterTemperature: string
   notes: string
   readings: BrewFormReading[]
+  /** For an attempt of a dial-in session: what changed since the attempt before. */
+  changeNote: string
 }
 
 export const lrrText = (method: BrewMethod): string => (method === 'immersion' ? defaultRetainedRatio.immersion : defaultRetainedRatio.percolation).toFixed(1)
@@ -57,6 +62,7 @@ export function emptyBrewForm(): BrewForm {
     waterTemperature: '',
     notes: '',
     readings: [],
+    changeNote: '',
   }
 }
 
@@ -90,12 +96,17 @@ export interface BrewOutcome {
   input: BrewInput
   result: BrewResult
   strength: StrengthSource
-  /** Mean and spread of the readings not set aside; the outlier's index is into form.readings. */
+  /** Mean and spread of the readings the result uses. */
   readings: ReadingsSummary | null
+  /**
+   * The reading Dixon's Q flags among those not set aside (its index is into form.readings), and
+   * whether it is left out of the result: it is unless the person keeps it.
+   */
+  outlier: (NonNullable<ReadingsSummary['outlier']> & { leftOut: boolean }) | null
   uncertainty: BrewUncertainty | null
   verdict: ZoneVerdict | null
-  /** Water per gram of coffee, when the water was given. */
-  ratio: number | null
+  /** Brew ratio, grams of beverage per gram of coffee (shared/brewing/ratio.ts), once the masses give it. */
+  ratio: BrewRatio | null
   /** The zone the verdict is against (the context's, else the team's default), and why. */
   zone: Zone
   zoneSource: string
@@ -119,7 +130,11 @@ export function useBrewForm(initial: BrewForm, options: { gauges: Ref<ReadonlyMa
   const outcome = computed<BrewOutcome>(() => {
     const read = Object.fromEntries(numberFields.map(field => [field, readNumber(form[field])])) as Record<(typeof numberFields)[number], ReturnType<typeof readNumber>>
     const strength = strengthSourceOf(gauge.value, form.manualSource)
-    const included = form.readings.flatMap((reading, index) => (reading.excluded ? [] : [{ value: reading.value, index }]))
+    const active = form.readings.flatMap((reading, index) => (reading.excluded ? [] : [{ value: reading.value, index }]))
+    // One pass of Dixon's Q over the readings not set aside: a flagged one leaves the result unless kept.
+    const flagged = active.length ? summarizeReadings(active.map(reading => reading.value)).outlier : null
+    const outlier = flagged && { ...flagged, index: active[flagged.index]!.index, leftOut: !form.readings[active[flagged.index]!.index]!.kept }
+    const included = outlier?.leftOut ? active.filter(reading => reading.index !== outlier.index) : active
     const masses = form.byDifference
       ? { doseGross: read.doseGross.value, doseTare: read.doseTare.value, beverageGross: read.beverageGross.value, beverageTare: read.beverageTare.value }
       : { dose: read.dose.value, beverageMass: read.beverageMass.value }
@@ -129,13 +144,15 @@ export function useBrewForm(initial: BrewForm, options: { gauges: Ref<ReadonlyMa
       calibration: strength.calibration,
       brixFactor: strength.usesFactor ? read.brixFactor.value : null,
       readings: included.map(reading => reading.value),
-      waterMass: read.waterMass.value,
+      // An espresso's water is never weighed and its field is hidden: what it held (a recipe's
+      // filter water, say) is never used.
+      waterMass: form.method === 'espresso' ? null : read.waterMass.value,
       retainedRatio: read.retainedRatio.value,
       ...masses,
     }
     const result = computeBrew(input)
     // A field the result does not use (hidden on the screen) cannot hold up a save.
-    const unused = new Set([...(strength.usesFactor ? [] : ['brixFactor']), ...(result.retainedRatio === null ? ['retainedRatio'] : [])])
+    const unused = new Set([...(strength.usesFactor ? [] : ['brixFactor']), ...(result.retainedRatio === null ? ['retainedRatio'] : []), ...(form.method === 'espresso' ? ['waterMass'] : [])])
     const invalid: string[] = numberFields.filter(field => read[field].error && !unused.has(field))
     if (readDuration(form.contactTime).error)
       invalid.push('contactTime')
@@ -143,17 +160,16 @@ export function useBrewForm(initial: BrewForm, options: { gauges: Ref<ReadonlyMa
     if (temperature !== null && (temperature < 0 || temperature > 100))
       invalid.push('waterTemperature')
     const summary = included.length ? summarizeReadings(input.readings) : null
-    const outlier = summary?.outlier ? { ...summary.outlier, index: included[summary.outlier.index]!.index } : null
     const { zone, source: zoneSource } = options.judge(form.context, form.method)
-    const water = read.waterMass.value
     return {
       input,
       result,
       strength,
-      readings: summary && { ...summary, outlier },
+      readings: summary && { ...summary, outlier: null },
+      outlier,
       uncertainty: brewUncertainty(input, result, { scaleResolution, byDifference: form.byDifference, repeatability: strength.repeatability }),
       verdict: result.tdsPercent !== null && result.yieldPercent !== null && result.tdsPercent > 0 && result.yieldPercent > 0 ? zoneVerdict(zone, { tdsPercent: result.tdsPercent, yieldPercent: result.yieldPercent }) : null,
-      ratio: result.dose !== null && water !== null && water > 0 ? brewRatio(result.dose, water) : null,
+      ratio: brewRatioOf(result, input.waterMass ?? null),
       zone,
       zoneSource,
       invalid,

@@ -3,8 +3,7 @@ import type { Zone } from '../../shared/brewing'
 import type { ContextKind } from '../../shared/schemas/entities'
 import type { LocalRecord } from '../db/database'
 import { computed, ref } from 'vue'
-import { computeBrew, formatTds, formatYield, roundHalfUp, zoneVerdict } from '../../shared/brewing'
-import { brewInputOf } from '../../shared/records/brew-input'
+import { zoneVerdict } from '../../shared/brewing'
 import { brewsNewestFirst } from '../db/queries'
 import { useLiveQuery } from './useLiveQuery'
 
@@ -43,12 +42,23 @@ export function inZone(brew: Brew, zone: Zone): boolean | null {
   return tds !== null && ey !== null ? zoneVerdict(zone, { tdsPercent: tds, yieldPercent: ey }).inZone : null
 }
 
-/** The time span a period filter keeps, in ms since the epoch; local days for chosen dates. */
+/** Midnight of the phone's calendar day, `daysBack` days before the one holding `now`. */
+function startOfDay(now: number, daysBack = 0): number {
+  const day = new Date(now)
+  day.setHours(0, 0, 0, 0)
+  day.setDate(day.getDate() - daysBack)
+  return day.getTime()
+}
+
+/**
+ * The time span a period filter keeps, in ms since the epoch, in the phone's time zone: today is
+ * the calendar day (not the last 24 h), 7 days is today and the six days before.
+ */
 function span(f: LedgerFilters, now: number): [number, number] {
   if (f.period === 'today')
-    return [now - dayMs, Infinity]
+    return [startOfDay(now), Infinity]
   if (f.period === 'week')
-    return [now - 7 * dayMs, Infinity]
+    return [startOfDay(now, 6), Infinity]
   if (f.period === 'dates') {
     const start = f.from ? new Date(`${f.from}T00:00:00`).getTime() : -Infinity
     const end = f.to ? new Date(`${f.to}T00:00:00`).getTime() + dayMs : Infinity
@@ -81,38 +91,4 @@ export function useLedger(teamId: Ref<string | null>, zoneFor: ZoneFor) {
   const shown = computed(() => filterBrews(brews.value, filters.value, zoneFor))
   const filtered = computed(() => Object.entries(filters.value).some(([key, value]) => value !== noFilters[key as keyof LedgerFilters]))
   return { filters, brews, shown, filtered, state }
-}
-
-const contextWords: Record<ContextKind, string> = { quick: 'quick brew', entry: 'event entry', lot: 'lot', recipe: 'recipe' }
-
-/** The rows of the CSV export, with units in the headers. */
-export function ledgerRows(brews: Brew[], zoneFor: ZoneFor, nameOf: (userId: string) => string = () => '', labelOf: (brew: Brew) => string = brew => contextWords[brew.context.kind]): Record<string, string | number>[] {
-  const number = (value: number | null): number | string => value ?? ''
-  // Net masses as the core computes them (gross minus tare where weighed so), to 2 decimals.
-  const masses = (brew: Brew) => computeBrew(brewInputOf(brew, [], null))
-  const grams = (value: number | null): number | string => (value === null ? '' : roundHalfUp(value, 2))
-  return brews.map((brew) => {
-    const { dose, beverageMass, beverageEstimated } = masses(brew)
-    const zone = zoneFor(brew)
-    const inside = inZone(brew, zone)
-    return {
-      'brewed at (ISO 8601)': brew.brewedAt,
-      'method': brew.method,
-      'context': labelOf(brew),
-      'TDS (%)': tdsOf(brew) === null ? '' : formatTds(tdsOf(brew)!),
-      'extraction yield (%)': eyOf(brew) === null ? '' : formatYield(eyOf(brew)!),
-      'dose (g)': grams(dose),
-      'beverage (g)': grams(beverageEstimated ? null : beverageMass),
-      'water (g)': number(brew.waterMass),
-      'LRR (g/g)': number(brew.retainedRatio),
-      'grind setting': brew.grindSetting,
-      'contact time (s)': number(brew.contactTimeSeconds),
-      'water temperature (°C)': number(brew.waterTemperatureC),
-      'zone': zone.name,
-      'in zone': inside === null ? '' : inside ? 'yes' : 'no',
-      'recorded by': nameOf(brew.createdBy),
-      'notes': brew.notes,
-      'synced': brew.sync.state === 'clean' ? 'yes' : 'no',
-    }
-  })
 }

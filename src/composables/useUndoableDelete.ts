@@ -15,9 +15,10 @@ export function useUndoableDelete() {
     const undo = await deleteRecord(db, entity, id, { reason: options.reason })
     let undone = false
     const toast = await presentToast({
-      message: `${options.what} deleted.`,
+      message: `${options.what} was deleted. Undo brings it back.`,
       duration: 6000,
       position: 'top',
+      cssClass: 'lx-toast-undo',
       buttons: [{ text: 'Undo', handler: () => {
         undone = true
         void undo().then(() => sync.syncNow())

@@ -85,6 +85,14 @@ export interface UploadEntry {
   sentAt?: string
 }
 
+/** A teammate's photo, fetched from the team server and kept on this phone. */
+export interface PhotoFile {
+  id: string
+  teamId: string
+  blob: Blob
+  fetchedAt: string
+}
+
 /** Each entity's table, typed by its record. */
 export type RecordTables = { [E in EntityName]: Table<LocalRecord<E>, string> }
 
@@ -103,6 +111,13 @@ export const tableOf = {
   zoneDefault: 'zoneDefaults',
   signoff: 'signoffs',
   zeroCheck: 'zeroChecks',
+  cuppingTable: 'cuppingTables',
+  scoreSheet: 'scoreSheets',
+  score: 'scores',
+  photo: 'photos',
+  recipeVersion: 'recipeVersions',
+  houseRecipe: 'houseRecipes',
+  dialIn: 'dialIns',
 } as const satisfies Record<EntityName, string>
 export type RecordTableName = (typeof tableOf)[EntityName]
 
@@ -125,7 +140,16 @@ export class LixiviaDatabase extends Dexie {
   zoneDefaults!: RecordTables['zoneDefault']
   signoffs!: RecordTables['signoff']
   zeroChecks!: RecordTables['zeroCheck']
+  recipeVersions!: RecordTables['recipeVersion']
+  houseRecipes!: RecordTables['houseRecipe']
+  dialIns!: RecordTables['dialIn']
   uploads!: Table<UploadEntry, string>
+  cuppingTables!: RecordTables['cuppingTable']
+  scoreSheets!: RecordTables['scoreSheet']
+  scores!: RecordTables['score']
+  photos!: RecordTables['photo']
+  /** Photos this phone did not take, kept once fetched so they show without signal. */
+  photoFiles!: Table<PhotoFile, string>
   /** The record tables by entity, for code that handles any entity. */
   readonly records: RecordTables
 
@@ -154,6 +178,21 @@ export class LixiviaDatabase extends Dexie {
     })
     // Competition judging: a round's sign-off queued on the phone, and each instrument's daily zero check.
     this.version(5).stores({ signoffs: 'id, teamId, roundId, sync.state', zeroChecks: 'id, teamId, instrumentId, sync.state' })
+    // Buying trips at origin: cupping tables, score sheets and scores, photos and the photos fetched from teammates.
+    this.version(6).stores({
+      cuppingTables: 'id, teamId, tripId, sync.state',
+      scoreSheets: 'id, teamId, sync.state',
+      scores: 'id, teamId, tableId, sync.state',
+      photos: 'id, teamId, tripId, lotId, brewId, sync.state',
+      photoFiles: 'id, teamId',
+    })
+    // Recipe versions, the crew's house marks and dial-in sessions (an attempt is a brew whose
+    // context names its session, so brews need no new index). An older version skipped these
+    // records, and brews whose context names a version or a session, as unreadable: every team is
+    // pulled again from the start (local changes stay).
+    this.version(7).stores({ recipeVersions: 'id, teamId, recipeId, sync.state', houseRecipes: 'id, teamId, sync.state', dialIns: 'id, teamId, recipeId, sync.state' }).upgrade(async (tx) => {
+      await tx.table('meta').where('key').startsWith('cursor:').delete()
+    })
     this.records = {
       instrument: this.instruments,
       calibration: this.calibrations,
@@ -169,6 +208,13 @@ export class LixiviaDatabase extends Dexie {
       zoneDefault: this.zoneDefaults,
       signoff: this.signoffs,
       zeroCheck: this.zeroChecks,
+      cuppingTable: this.cuppingTables,
+      scoreSheet: this.scoreSheets,
+      score: this.scores,
+      photo: this.photos,
+      recipeVersion: this.recipeVersions,
+      houseRecipe: this.houseRecipes,
+      dialIn: this.dialIns,
     }
   }
 

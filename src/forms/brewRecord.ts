@@ -26,27 +26,37 @@ export function brewDataOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge | 
     ...(form.byDifference
       ? { dose: null, beverageMass: null, doseGross: blank(form.doseGross), doseTare: blank(form.doseTare), beverageGross: blank(form.beverageGross), beverageTare: blank(form.beverageTare) }
       : { dose: blank(form.dose), beverageMass: blank(form.beverageMass), doseGross: null, doseTare: null, beverageGross: null, beverageTare: null }),
-    waterMass: blank(form.waterMass),
+    // The water the result used: none for an espresso, whatever its hidden field still holds.
+    waterMass: outcome.input.waterMass ?? null,
     // The LRR the result used (typed or the common-practice default), so the record shows it.
     retainedRatio: result.retainedRatio,
     grindSetting: form.grindSetting.trim(),
     contactTimeSeconds: readDuration(form.contactTime).value,
     waterTemperatureC: blank(form.waterTemperature),
     notes: form.notes.trim(),
-    excludedReadingIds: form.readings.flatMap(reading => (reading.excluded && reading.id ? [reading.id] : [])),
+    excludedReadingIds: form.readings.flatMap((reading, index) => ((reading.excluded || (outcome.outlier?.leftOut && outcome.outlier.index === index)) && reading.id ? [reading.id] : [])),
+    changeNote: form.changeNote.trim(),
   }
 }
 
+/** A reading typed on this screen, not stored yet, and whether the result leaves it out (an outlier). */
+export interface NewReading { data: ReadingFields, leftOut: boolean }
+
 /** The readings typed on this screen, not yet stored, as reading records. */
-export function newReadingsOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge | null, takenAt: string): ReadingFields[] {
-  return form.readings.filter(reading => !reading.id).map(reading => ({
-    value: reading.value,
-    kind: outcome.strength.kind,
-    temperatureC: null,
-    instrumentId: gauge?.instrument.id ?? null,
-    calibrationId: outcome.strength.source === 'calibration' ? gauge?.calibration?.id ?? null : null,
-    takenAt,
-  }))
+export function newReadingsOf(form: BrewForm, outcome: BrewOutcome, gauge: Gauge | null, takenAt: string): NewReading[] {
+  return form.readings.flatMap((reading, index) => (reading.id
+    ? []
+    : [{
+        data: {
+          value: reading.value,
+          kind: outcome.strength.kind,
+          temperatureC: null,
+          instrumentId: gauge?.instrument.id ?? null,
+          calibrationId: outcome.strength.source === 'calibration' ? gauge?.calibration?.id ?? null : null,
+          takenAt,
+        },
+        leftOut: Boolean(outcome.outlier?.leftOut && outcome.outlier.index === index),
+      }]))
 }
 
 /** A stored brew back in the form, to edit it: readings keep their ids and can only be set aside. */
@@ -54,7 +64,8 @@ export function formOfBrew(brew: EntityData<'brew'>, readings: readonly Pick<Loc
   const excluded = new Set(brew.excludedReadingIds)
   return {
     ...emptyBrewForm(),
-    context: { kind: brew.context.kind, refId: brew.context.refId },
+    // The whole context, so an edited bowl stays on its cupping table.
+    context: { ...brew.context },
     method: brew.method,
     instrumentId: brew.instrumentId,
     manualSource: brew.strengthSource === 'brix-factor' ? 'brix-factor' : 'direct',
@@ -72,6 +83,8 @@ export function formOfBrew(brew: EntityData<'brew'>, readings: readonly Pick<Loc
     contactTime: formatDuration(brew.contactTimeSeconds),
     waterTemperature: numberText(brew.waterTemperatureC),
     notes: brew.notes,
-    readings: readings.map(reading => ({ id: reading.id, value: reading.value, excluded: excluded.has(reading.id) })),
+    // A reading left out as an outlier comes back set aside, which is what it is on record.
+    readings: readings.map(reading => ({ id: reading.id, value: reading.value, excluded: excluded.has(reading.id), kept: true })),
+    changeNote: brew.changeNote,
   }
 }

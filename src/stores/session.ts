@@ -77,17 +77,27 @@ export const useSessionStore = defineStore('session', () => {
         memberships.value = cached.memberships
         activeTeamId.value = cached.activeTeamId
       }
+      // Nobody signed in on this phone: nothing to renew. Without signal, the cached identity stands.
+      // Neither is an error, so neither asks the server (a refused or failed call is logged by the browser).
+      if (!cached) {
+        status.value = 'signed-out'
+        return
+      }
+      if (!navigator.onLine) {
+        status.value = 'offline'
+        return
+      }
       try {
         const session = await refreshSession()
         if (session)
           await loadProfile()
         else
-          status.value = cached ? 'expired' : 'signed-out'
+          status.value = 'expired'
       }
       catch (error) {
         if (!(error instanceof ApiError) || error.code !== 'network')
           throw error
-        status.value = cached ? 'offline' : 'signed-out'
+        status.value = 'offline'
       }
     })()
     return restoring

@@ -3,6 +3,7 @@ import type { Uploader, UploadStatus } from '../sync/uploads'
 import { defineStore } from 'pinia'
 import { computed, ref } from 'vue'
 import { apiUploads } from '../api/upload'
+import { refreshMembers } from '../composables/useMembers'
 import { db } from '../db/database'
 import { createSyncEngine } from '../sync/engine'
 import { apiTransport } from '../sync/transport'
@@ -26,6 +27,22 @@ export const useSyncStore = defineStore('sync', () => {
   async function syncNow(): Promise<void> {
     await engine?.syncNow()
     await uploader?.uploadNow()
+    if (engine?.status().state === 'idle')
+      void keepMembers()
+  }
+
+  /**
+   * Teammates' names for "recorded by" lines, on screen and in exports, kept on the phone once per
+   * app start after a sync went through, so they are there offline even on screens never opened online.
+   */
+  const membersKept = new Set<string>()
+  async function keepMembers(): Promise<void> {
+    for (const { teamId } of useSessionStore().memberships) {
+      if (membersKept.has(teamId))
+        continue
+      membersKept.add(teamId)
+      await refreshMembers(teamId).catch(() => membersKept.delete(teamId))
+    }
   }
 
   /** Once, after sign-in: sync when signal returns, when the app comes back, and every 30 s. */
@@ -37,6 +54,7 @@ export const useSyncStore = defineStore('sync', () => {
       database: db,
       transport: apiTransport,
       teamIds: () => session.memberships.map(m => m.teamId),
+      isOnline: () => navigator.onLine,
       onStatus: (next) => {
         status.value = next
       },
@@ -44,6 +62,7 @@ export const useSyncStore = defineStore('sync', () => {
     uploader = createUploader({
       database: db,
       transport: apiUploads,
+      isOnline: () => navigator.onLine,
       onStatus: (next) => {
         uploads.value = next
       },

@@ -47,6 +47,8 @@ export interface SyncEngineOptions {
   onStatus?: (status: SyncStatus) => void
   batchSize?: number
   pullLimit?: number
+  /** Whether the phone has signal; without it nothing is tried (the 'online' event starts a sync). */
+  isOnline?: () => boolean
   /** Waits before a retry after a network error or a 5xx (1 s, doubling to 60 s). */
   schedule?: (retry: () => void, delayMs: number) => void
 }
@@ -60,6 +62,7 @@ export function createSyncEngine(options: SyncEngineOptions) {
   const batchSize = options.batchSize ?? 200
   const pullLimit = options.pullLimit ?? 500
   const schedule = options.schedule ?? wait
+  const isOnline = options.isOnline ?? (() => true)
   let running: Promise<void> | null = null
   let failures = 0
   /** Records of this run's pulls that this version could not read. */
@@ -78,10 +81,16 @@ export function createSyncEngine(options: SyncEngineOptions) {
   async function report(change: Partial<SyncStatus>): Promise<void> {
     const queued = await database.outbox.toArray()
     const waiting = queued.filter(entry => !entry.rejected)
+    // What the person did, not how many mutations it took: a brew and its readings are one change.
+    const changes = new Set(waiting.map(entry => (entry.entity === 'reading' && typeof entry.data?.brewId === 'string' ? entry.data.brewId : entry.id)))
+    if (status.lastSyncedAt === null && change.lastSyncedAt === undefined) {
+      const kept = (await database.meta.get('lastSyncedAt'))?.value
+      status = { ...status, lastSyncedAt: typeof kept === 'string' ? kept : null }
+    }
     let conflicts = 0
     for (const table of Object.values(database.records))
       conflicts += await table.where('sync.state').equals('conflict').count()
-    status = { ...status, ...change, pending: waiting.length, attention: conflicts + queued.length - waiting.length, oldestPendingAt: waiting[0]?.createdAt ?? null }
+    status = { ...status, ...change, pending: changes.size, attention: conflicts + queued.length - waiting.length, oldestPendingAt: waiting[0]?.createdAt ?? null }
     options.onStatus?.(status)
   }
 
@@ -181,6 +190,10 @@ export function createSyncEngine(options: SyncEngineOptions) {
   }
 
   async function run(): Promise<void> {
+    if (!isOnline()) {
+      await report({ state: 'waiting', error: null })
+      return
+    }
     await report({ state: 'syncing', error: null })
     try {
       unreadable = 0
@@ -188,7 +201,9 @@ export function createSyncEngine(options: SyncEngineOptions) {
       for (const teamId of options.teamIds())
         await pullTeam(teamId)
       failures = 0
-      await report({ state: 'idle', lastSyncedAt: new Date().toISOString(), error: unreadable ? `${unreadable} records from the team server need a newer version of the app; update it to see them.` : null })
+      const lastSyncedAt = new Date().toISOString()
+      await database.meta.put({ key: 'lastSyncedAt', value: lastSyncedAt })
+      await report({ state: 'idle', lastSyncedAt, error: unreadable ? `${unreadable} records from the team server need a newer version of the app; update it to see them.` : null })
     }
     catch (error) {
       // Whatever was in flight goes out again next time; the server answers repeats from memory.
@@ -206,7 +221,9 @@ export function createSyncEngine(options: SyncEngineOptions) {
       }
       failures += 1
       await report({ state: 'waiting', error: isTransportError(error) ? error.message : String(error) })
-      schedule(() => void syncNow(), Math.min(60_000, 1000 * 2 ** (failures - 1)))
+      // Signal gone: the 'online' event brings the next try, so no retry is spent (and logged) meanwhile.
+      if (isOnline())
+        schedule(() => void syncNow(), Math.min(60_000, 1000 * 2 ** (failures - 1)))
     }
   }
 

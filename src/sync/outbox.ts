@@ -30,6 +30,12 @@ export interface RecordSave<E extends EntityName> {
   id?: string
   data: Partial<EntityDataInput<E>>
   reason?: string
+  /**
+   * Queue an edit as a mutation of its own, behind everything queued so far, even when an unsent
+   * one of the record could take it: for an edit that names a record queued after that one (a
+   * recipe pointing at its new version), which the server must have first.
+   */
+  ownMutation?: boolean
 }
 
 /**
@@ -58,7 +64,7 @@ export async function saveRecord<E extends EntityName>(database: LixiviaDatabase
     if (Object.keys(patch).length === 0)
       return
     await table.put({ ...existing, ...patch, updatedAt: now, sync: { ...existing.sync, state: 'pending' } })
-    const unsent = await unsentFor(database, id)
+    const unsent = input.ownMutation ? undefined : await unsentFor(database, id)
     const reason = joinReasons(unsent?.op === 'put' ? unsent.reason : undefined, input.reason)
     if (unsent?.op === 'put')
       await database.outbox.update(unsent.seq!, { data: { ...unsent.data, ...patch }, ...(reason ? { reason } : {}) })

@@ -40,6 +40,8 @@ export interface UploaderOptions {
   database: LixiviaDatabase
   transport: UploadTransport
   onStatus?: (status: UploadStatus) => void
+  /** Whether the phone has signal; without it nothing is tried (the next sync starts the queue). */
+  isOnline?: () => boolean
   /** Waits before a retry after a passing failure (2 s, doubling to 2 min). */
   schedule?: (retry: () => void, delayMs: number) => void
 }
@@ -87,6 +89,8 @@ export function createUploader(options: UploaderOptions) {
   }
 
   async function run(): Promise<void> {
+    if (!(options.isOnline?.() ?? true))
+      return report()
     // A file cut off mid-way (the app closed) goes again.
     await database.uploads.where('state').equals('sending').modify({ state: 'queued', progress: 0 })
     try {
@@ -99,7 +103,7 @@ export function createUploader(options: UploaderOptions) {
       failures = 0
     }
     catch (error) {
-      if (!(isTransportError(error) && error.status === 401)) {
+      if (!(isTransportError(error) && error.status === 401) && (options.isOnline?.() ?? true)) {
         failures += 1
         schedule(() => void uploadNow(), Math.min(120_000, 2000 * 2 ** (failures - 1)))
       }

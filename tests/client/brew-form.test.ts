@@ -33,7 +33,7 @@ function harness(gauge: Gauge | null = null, initial: Partial<BrewForm> = {}) {
       return () => h('div', [
         h(BrewStrengthSource, { gauges: gauge ? [gauge] : [], gauge, strength: outcome.value.strength, invalid: outcome.value.invalid }),
         h(BrewWeights, { invalid: outcome.value.invalid, dose: outcome.value.result.dose, beverage: outcome.value.result.beverageMass, estimated: outcome.value.result.beverageEstimated }),
-        h(BrewReadings, { summary: outcome.value.readings, kind: outcome.value.strength.kind }),
+        h(BrewReadings, { summary: outcome.value.readings, outlier: outcome.value.outlier, kind: outcome.value.strength.kind }),
         h(BrewResultPanel, { outcome: outcome.value }),
       ])
     },
@@ -92,7 +92,12 @@ describe('the measure form', () => {
     // Dixon's Q for 1.38, 1.52, 1.37, 1.39: 0.867 > 0.829 (Rorabacher 1991, four readings, 95 %).
     for (const value of ['1.38', '1.52', '1.37', '1.39'])
       await addReading(wrapper, value)
-    expect(text(wrapper, 'readings-summary')).toContain('1.52 looks like an outlier')
+    // Left out by default: the mean is of the other three, and one tap keeps it.
+    expect(text(wrapper, 'outlier')).toContain('1.52 is left out of the result as an outlier (Dixon\'s Q 0.87 is above 0.829 at 95 %)')
+    expect(text(wrapper, 'readings-summary')).toBe('Mean 1.380 from 3 readings, spread ± 0.010 (SD).')
+    await wrapper.find('[data-test="keep-outlier"]').trigger('click')
+    expect(text(wrapper, 'outlier')).toContain('1.52 looks like an outlier (Dixon\'s Q 0.87 is above 0.829 at 95 %) but is kept')
+    expect(text(wrapper, 'readings-summary')).toContain('Mean 1.415 from 4 readings')
   })
 })
 
@@ -140,6 +145,25 @@ describe('the measure form\'s LRR and immersion', () => {
     expect(lrr()).toBe('2.6')
   })
 
+  it('gives an espresso its ratio from the beverage, never from water a recipe left in the hidden field', async () => {
+    // 36 g from 18 g is 1:2.0; the 250 g of filter water once gave 250 / 18 = 1:13.9.
+    const wrapper = mount(harness(null, { method: 'espresso', byDifference: false, dose: '18', beverageMass: '36', waterMass: '250' }), { global: { plugins: [IonicVue] } })
+    await addReading(wrapper, '10')
+    expect(text(wrapper, 'ratio')).toBe('Brew ratio 1:2.0 (grams of beverage per gram of coffee)')
+    // EY = 10 × 36 / 18 = 20.0 %: from the weighed shot, not from the water.
+    expect(text(wrapper, 'ey')).toBe('20.0')
+    mounted.beverageMass = ''
+    await flushPromises()
+    expect(wrapper.find('[data-test="ratio"]').exists()).toBe(false)
+    expect(text(wrapper, 'missing')).toContain('Weigh the beverage')
+  })
+
+  it('words a percolation\'s ratio the same way, from the beverage the yield used', async () => {
+    // 240 g from 15 g: 1:16.0, grams of beverage per gram of coffee (the chart's lines).
+    const wrapper = mount(harness(null, { byDifference: false, dose: '15', beverageMass: '240', waterMass: '270' }), { global: { plugins: [IonicVue] } })
+    expect(text(wrapper, 'ratio')).toBe('Brew ratio 1:16.0 (grams of beverage per gram of coffee)')
+  })
+
   it('takes an immersion from the poured-off beverage and the LRR when no water is given', async () => {
     // EY = TDS × (beverage + LRR × dose) / dose = 1.20 × (150 + 3 × 10) / 10 = 21.6 % (mass balance).
     const wrapper = mount(harness(null, { method: 'immersion', byDifference: false, dose: '10', beverageMass: '150', retainedRatio: '3.0' }), { global: { plugins: [IonicVue] } })
@@ -151,10 +175,10 @@ describe('the measure form\'s LRR and immersion', () => {
 
 describe('stored readings in the form', () => {
   it('are set aside and brought back, never removed, and the mean follows', async () => {
-    const readings = [1.34, 1.35, 1.36, 1.52].map((value, index) => ({ id: `reading-${index}`, value, excluded: false }))
+    // Stored readings come back as they were used (formOfBrew keeps them), outlier or not.
+    const readings = [1.34, 1.35, 1.36, 1.52].map((value, index) => ({ id: `reading-${index}`, value, excluded: false, kept: true }))
     const wrapper = mount(harness(null, { readings, byDifference: false, dose: '15', beverageMass: '240' }), { global: { plugins: [IonicVue] } })
-    expect(text(wrapper, 'readings-summary')).toContain('1.52 looks like an outlier')
-    expect(text(wrapper, 'readings-summary')).toContain('set it aside')
+    expect(text(wrapper, 'outlier')).toContain('1.52 looks like an outlier')
     const chips = () => wrapper.findAll('[data-test="readings"] ion-chip')
     await chips()[3]!.trigger('click')
     expect(chips()).toHaveLength(4)

@@ -19,7 +19,7 @@ function roundTrip(filled: Partial<BrewForm>) {
   const brewedAt = '2026-12-02T07:30:00.000Z'
   // The server parses what the phone sends with the entity's schema; a stored brew is that.
   const stored = entityDataSchemas.brew.parse({ ...brewDataOf(form, outcome.value, gauge.value), brewedAt })
-  const readings = newReadingsOf(form, outcome.value, gauge.value, brewedAt).map((reading, index) => ({ ...entityDataSchemas.reading.parse({ ...reading, brewId: pen.id }), id: readingIds[index]! }))
+  const readings = newReadingsOf(form, outcome.value, gauge.value, brewedAt).map((reading, index) => ({ ...entityDataSchemas.reading.parse({ ...reading.data, brewId: pen.id }), id: readingIds[index]! }))
   return { form, outcome: outcome.value, stored, readings, again: formOfBrew(stored, readings) }
 }
 
@@ -49,5 +49,27 @@ describe('a brew from the form to its record and back', () => {
     const edited = formOfBrew({ ...stored, excludedReadingIds: [readings[2]!.id] }, readings)
     expect(edited.readings.map(r => r.excluded)).toEqual([false, false, true])
     expect(computeBrew(brewInputOf({ ...stored, excludedReadingIds: [readings[2]!.id] }, readings, null)).tdsPercent).toBeCloseTo(1.345, 12)
+  })
+
+  it('keeps a cupping bowl on its table when it is edited', () => {
+    const context = { kind: 'lot' as const, refId: '0190a8c4-0000-7000-8000-0000000000c1', tableId: '0190a8c4-0000-7000-8000-0000000000c2' }
+    const { stored, readings, again } = roundTrip({ context, method: 'immersion', byDifference: false, dose: '8.25', waterMass: '150', instrumentId: pen.id, readings: [{ value: 1.12, excluded: false }] })
+    expect(stored.context).toEqual(context)
+    expect(formOfBrew(stored, readings).context).toEqual(context)
+    expect(again.context.tableId).toBe(context.tableId)
+  })
+
+  it('stores no water for an espresso, whatever its hidden field held from a filter recipe', () => {
+    const { stored } = roundTrip({ method: 'espresso', byDifference: false, dose: '18', beverageMass: '36', waterMass: '250', instrumentId: pen.id, readings: [{ value: 10, excluded: false }] })
+    expect(stored.waterMass).toBeNull()
+    // EY = 10 × 36 / 18 = 20 %, from the weighed shot (handbook worked espresso).
+    expect(computeBrew(brewInputOf(stored, [{ id: readingIds[0]!, value: 10 }], null)).yieldPercent).toBeCloseTo(20, 10)
+  })
+
+  it('keeps an attempt\'s change note and its session with the brew', () => {
+    const session = '0190a8c4-0000-7000-8000-0000000000d1'
+    const { stored, again } = roundTrip({ byDifference: false, dose: '15', beverageMass: '240', changeNote: ' two clicks finer ', context: { kind: 'quick', refId: null, sessionId: session } })
+    expect(stored).toMatchObject({ changeNote: 'two clicks finer', context: { sessionId: session } })
+    expect(again.changeNote).toBe('two clicks finer')
   })
 })

@@ -14,15 +14,15 @@ import { localRecord } from './records'
 // (1.20–1.45 %TDS, 18–22 % EY) allowing 0.05 %TDS and 0.5 % EY, two pours of two readings per cup.
 const team = 't'
 const at = '2026-05-01T08:30:00.000Z'
-const event = localRecord('event', { id: 'e1', teamId: team, name: 'Gull Point Open', zoneId: 'european-drip', toleranceTdsPercent: 0.05, toleranceYieldPercent: 0.5 })
-const round = localRecord('round', { id: 'r1', teamId: team, eventId: 'e1', name: 'Heat 1', position: 1, poursPerCup: 2, readingsPerPour: 2, judgeIds: [], zoneId: null, toleranceTdsPercent: null, toleranceYieldPercent: null })
-const cups = [localRecord('entry', { id: 'c1', teamId: team, roundId: 'r1', code: 'KX4M', contestant: '', notes: '' }), localRecord('entry', { id: 'c2', teamId: team, roundId: 'r1', code: 'T9PH', contestant: '', notes: '' })]
-const pen = localRecord('instrument', { id: 'i1', teamId: team, label: 'Bar pen', readingKind: 'tds', resolution: 0.01, repeatability: 0.02, brixFactor: null, notes: '' })
+const event = localRecord('event', { id: 'e1', name: 'Gull Point Open', zoneId: 'european-drip', toleranceTdsPercent: 0.05, toleranceYieldPercent: 0.5 })
+const round = localRecord('round', { id: 'r1', eventId: 'e1', name: 'Heat 1', position: 1, poursPerCup: 2, readingsPerPour: 2, judgeIds: [], zoneId: null, toleranceTdsPercent: null, toleranceYieldPercent: null })
+const cups = [localRecord('entry', { id: 'c1', roundId: 'r1', code: 'KX4M', contestant: '', notes: '' }), localRecord('entry', { id: 'c2', roundId: 'r1', code: 'T9PH', contestant: '', notes: '' })]
+const pen = localRecord('instrument', { id: 'i1', label: 'Bar pen', readingKind: 'tds', resolution: 0.01, repeatability: 0.02, brixFactor: null, notes: '' })
 
 /** A pour of 15.0 g → 240.0 g (EY = 16 × TDS), read on the pen. */
 async function pour(id: string, cup: string, values: number[]): Promise<void> {
-  await db.brews.put(localRecord('brew', { id, teamId: team, context: { kind: 'entry', refId: cup }, method: 'percolation', strengthSource: 'direct', instrumentId: 'i1', calibrationId: null, dose: 15, beverageMass: 240, brewedAt: at, excludedReadingIds: [] }))
-  await db.readings.bulkPut(values.map((value, i) => localRecord('reading', { id: `${id}-${i}`, teamId: team, brewId: id, value, kind: 'tds', instrumentId: 'i1', calibrationId: null, takenAt: at })))
+  await db.brews.put(localRecord('brew', { id, context: { kind: 'entry', refId: cup }, method: 'percolation', strengthSource: 'direct', instrumentId: 'i1', calibrationId: null, dose: 15, beverageMass: 240, brewedAt: at, excludedReadingIds: [] }))
+  await db.readings.bulkPut(values.map((value, i) => localRecord('reading', { id: `${id}-${i}`, brewId: id, value, kind: 'tds', instrumentId: 'i1', calibrationId: null, takenAt: at })))
 }
 
 /** Where an Ionic button leads (its router-link), found by its data-test name. */
@@ -82,7 +82,7 @@ describe('RoundBoardPage', () => {
     const wrapper = await mountBoard('member')
     expect(wrapper.findAll('[data-test="cup-zero-warning"]').map(w => w.text())).toEqual(['Read on Bar pen without a zero check that day.', 'Read on Bar pen without a zero check that day.'])
     // 10:00 at +02:00 is 08:00 UTC, the readings' day where the check was made.
-    await db.zeroChecks.put(localRecord('zeroCheck', { id: 'z1', teamId: team, instrumentId: 'i1', kind: 'tds', reading: 0.01, checkedAt: '2026-05-01T10:00:00.000+02:00', notes: '' }))
+    await db.zeroChecks.put(localRecord('zeroCheck', { id: 'z1', instrumentId: 'i1', kind: 'tds', reading: 0.01, checkedAt: '2026-05-01T10:00:00.000+02:00', notes: '' }))
     await vi.waitFor(() => expect(wrapper.findAll('[data-test="cup-zero-warning"]')).toHaveLength(0))
   })
 

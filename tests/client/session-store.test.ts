@@ -48,15 +48,27 @@ describe('useSessionStore().ready', () => {
     expect(session.user?.email).toBe(user.email)
   })
 
-  it('is signed out with nothing cached and no session', async () => {
+  it('is signed out with nothing cached, without asking the server', async () => {
     server({ '/auth/refresh': [401, { error: { code: 'unauthenticated', message: 'Sign in.' } }] })
     const session = useSessionStore()
     await session.ready()
     expect(session.status).toBe('signed-out')
     expect(session.user).toBeNull()
+    expect(fetch).not.toHaveBeenCalled()
+  })
+
+  it('stays with the cached identity without a request when the phone has no signal', async () => {
+    await cacheIdentity()
+    server({ '/auth/refresh': [200, { user, accessToken: 'header.payload.signature' }] })
+    vi.stubGlobal('navigator', { ...navigator, onLine: false })
+    const session = useSessionStore()
+    await session.ready()
+    expect(session.status).toBe('offline')
+    expect(fetch).not.toHaveBeenCalled()
   })
 
   it('renews the session online and caches the profile, never the tokens', async () => {
+    await cacheIdentity()
     server({
       '/auth/refresh': [200, { user, accessToken: 'header.payload.signature' }],
       '/me': [200, { user, memberships }],

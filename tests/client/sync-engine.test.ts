@@ -183,4 +183,36 @@ describe('createSyncEngine', () => {
     expect(await database.instruments.get(id)).toMatchObject({ notes: 'lens replaced', sync: { state: 'clean', baseRev: 2 } })
     expect((await database.meta.get(`cursor:${teamId}`))?.value).toBe(2)
   })
+
+  it('counts what the person did: a brew and its readings are one change waiting', async () => {
+    const { engine, seen } = engineWith(fakeServer())
+    const brewId = await saveRecord(database, 'brew', { teamId, userId, data: { context: { kind: 'quick', refId: null }, method: 'percolation', strengthSource: 'direct', dose: 15, beverageMass: 240, brewedAt: '2026-12-02T08:00:00.000Z' } })
+    for (const value of [1.34, 1.35, 1.36])
+      await saveRecord(database, 'reading', { teamId, userId, data: { brewId, value, kind: 'tds', takenAt: '2026-12-02T08:00:00.000Z' } })
+    await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Bench I') })
+    await engine.refreshStatus()
+    expect(seen.at(-1)).toMatchObject({ pending: 2 })
+  })
+
+  it('keeps the time of the last sync on the phone, for the next start offline', async () => {
+    const server = fakeServer()
+    await engineWith(server).engine.syncNow()
+    const first = (await database.meta.get('lastSyncedAt'))?.value
+    expect(typeof first).toBe('string')
+    const { engine, seen } = engineWith(server)
+    await engine.refreshStatus()
+    expect(seen.at(-1)?.lastSyncedAt).toBe(first)
+  })
+
+  it('tries nothing without signal, and spends no retry on it', async () => {
+    const server = fakeServer()
+    const delays: number[] = []
+    const seen: SyncStatus[] = []
+    const engine = createSyncEngine({ database, transport: server.transport, teamIds: () => [teamId], isOnline: () => false, onStatus: s => seen.push(s), schedule: (_retry, delay) => delays.push(delay) })
+    await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Bench J') })
+    await engine.syncNow()
+    expect(server.pushes).toEqual([])
+    expect(delays).toEqual([])
+    expect(seen.at(-1)).toMatchObject({ state: 'waiting', pending: 1, error: null })
+  })
 })

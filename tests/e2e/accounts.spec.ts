@@ -28,6 +28,11 @@ describe('accounts and teams in the browser', () => {
     await onScreen(first, 'submit').click()
     await first.waitForURL(url => url.pathname === '/crew')
     await first.getByText('You are not in a team yet').waitFor()
+    // The Bench leads a newcomer to a team first, at the top of the screen.
+    await first.locator('#tab-button-bench').click()
+    await onScreen(first, 'welcome').waitFor()
+    await onScreen(first, 'welcome-crew').click()
+    await first.waitForURL(url => url.pathname === '/crew')
 
     await onScreen(first, 'start-team').click()
     await first.locator('ion-alert input').fill('Saltmarsh Night Market')
@@ -64,6 +69,11 @@ describe('accounts and teams in the browser', () => {
     const row = onScreen(first, 'member-list').locator('ion-item', { hasText: invitee.email })
     expect(await row.innerText()).toContain('Member')
     await screenshot(first, 'team-members-joined')
+    // The owner sees a control on each member: the newcomer becomes a lead.
+    await row.locator('[data-test="manage-member"]').click()
+    await first.locator('ion-alert button[role="radio"]', { hasText: 'lead' }).click()
+    await first.locator('ion-alert button', { hasText: 'Save role' }).click()
+    await expect.poll(() => row.innerText()).toMatch(/lead/i)
     expect([...firstErrors, ...secondErrors]).toEqual([])
   })
 

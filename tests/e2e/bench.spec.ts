@@ -83,16 +83,18 @@ describe('measuring a brew on the Bench', () => {
     await expect.poll(() => list.locator('ion-item').count()).toBe(1)
     expect(await list.innerText()).toContain('1.35 %TDS · 21.6 % EY')
     // The brew found is in the US zone, so outside it nothing matches.
+    await onScreen(page, 'filter-toggle').click()
     await onScreen(page, 'filter-zone').locator('ion-segment-button', { hasText: 'Outside' }).click()
     await page.getByText('No brew matches these filters.').waitFor()
+    expect(await onScreen(page, 'filter-toggle').innerText()).toMatch(/Filters · 1/i)
     expect(await list.locator('ion-item').count()).toBe(0)
     await onScreen(page, 'filter-zone').locator('ion-segment-button', { hasText: 'In zone' }).click()
     await expect.poll(() => list.locator('ion-item').count()).toBeGreaterThan(0)
     expect(await list.innerText()).not.toContain('Outside')
     const [download] = await Promise.all([page.waitForEvent('download'), onScreen(page, 'export-csv').click()])
     const csv = (await import('node:fs')).readFileSync((await download.path())!, 'utf8')
-    expect(csv.split('\n')[0]).toContain('TDS (%),extraction yield (%),dose (g),beverage (g)')
-    expect(csv).toContain('1.35,21.6,15,240')
+    expect(csv.split('\n')[0]).toContain('TDS (%),extraction yield (%),dose (g),dose gross (g),dose tare (g),beverage (g)')
+    expect(csv).toContain('1.35,21.6,15,27.5,12.5,240')
     await screenshot(page, 'ledger')
   })
 
@@ -124,6 +126,7 @@ describe('measuring a brew on the Bench', () => {
     // The context stays for the next bowl of the same lot.
     expect(await onScreen(page, 'context-title').innerText()).toBe('Lot: Copperbeck Farm')
     await page.goto('/ledger')
+    await onScreen(page, 'filter-toggle').click()
     await onScreen(page, 'filter-context').locator('ion-segment-button', { hasText: 'Lot' }).click()
     await expect.poll(() => onScreen(page, 'ledger-list').innerText()).toContain('1.20 %TDS · 22.1 % EY')
   })
@@ -132,19 +135,20 @@ describe('measuring a brew on the Bench', () => {
     await page.goto('/bench')
     await onScreen(page, 'change-context').click()
     await page.locator('ion-modal ion-item', { hasText: 'Recipe: House filter' }).click()
-    await expect.poll(() => onScreen(page, 'context-title').innerText()).toBe('Recipe: House filter')
-    // The recipe fills in its water and settings (demo data: 250 g, 22 clicks, 3:30, 94 °C).
+    await expect.poll(() => onScreen(page, 'context-title').innerText()).toBe('Recipe: House filter v2')
+    // The recipe fills in its water and settings (demo data: version 2, from the night market's
+    // dial-in: 250 g, 17 clicks, 3:45, 96 °C).
     expect(await onScreen(page, 'water').locator('input').inputValue()).toBe('250')
-    expect(await onScreen(page, 'contact-time').locator('input').inputValue()).toBe('3:30')
+    expect(await onScreen(page, 'contact-time').locator('input').inputValue()).toBe('3:45')
     const recipeId = await page.evaluate(async () => {
       const open = indexedDB.open('lixivia')
       const db = await new Promise<IDBDatabase>(resolve => (open.onsuccess = () => resolve(open.result)))
       const all = db.transaction('recipes').objectStore('recipes').getAll()
-      return new Promise<string>(resolve => (all.onsuccess = () => resolve((all.result as { id: string }[])[0]!.id)))
+      return new Promise<string>(resolve => (all.onsuccess = () => resolve((all.result as { id: string, name: string }[]).find(recipe => recipe.name === 'House filter')!.id)))
     })
     await page.goto('/ledger')
     await page.goto(`/bench?context=recipe&ref=${recipeId}`)
-    await expect.poll(() => onScreen(page, 'context-title').innerText()).toBe('Recipe: House filter')
+    await expect.poll(() => onScreen(page, 'context-title').innerText()).toBe('Recipe: House filter v2')
   })
 
   it('threw no uncaught errors', () => {

@@ -131,9 +131,16 @@ function fieldFlow(who: { email: string, password: string }, label: string, offl
     await shot('ledger', !offline)
     const [download] = await Promise.all([page.waitForEvent('download'), onScreen(page, 'export-csv').click()])
     const csv = readFileSync((await download.path())!, 'utf8').split('\r\n')
-    expect(csv[0]).toContain('TDS (%),extraction yield (%),dose (g),beverage (g)')
+    expect(csv[0]).toContain('TDS (%),extraction yield (%),dose (g),dose gross (g),dose tare (g),beverage (g)')
     expect(csv).toHaveLength(2)
-    expect(csv[1]).toContain(`${expected.tds},${expected.ey},15,240`)
+    expect(csv[1]).toContain(`${expected.tds},${expected.ey},15,27.5,12.5,240,652.6,412.6`)
+    // Enough to settle a dispute from the file: the readings as read, the instrument, its calibration.
+    expect(csv[1]).toContain(readings.join('; '))
+    expect(csv[1]).toContain(label)
+    const [file] = await Promise.all([page.waitForEvent('download'), onScreen(page, 'export-readings').click()])
+    const rows = readFileSync((await file.path())!, 'utf8').trim().split('\r\n')
+    expect(rows).toHaveLength(1 + readings.length)
+    expect(rows[1]).toContain(`,1,${readings[0]},nD,no,`)
   })
 
   it('finds it on the Zone tab among the brews the log keeps', async () => {

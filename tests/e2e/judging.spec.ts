@@ -21,7 +21,7 @@ let judge: Page
 let errors: string[]
 let codes: string[] = []
 
-const shot = async (page: Page, name: string, checkAccess = true): Promise<void> => {
+async function shot(page: Page, name: string, checkAccess = true): Promise<void> {
   await screenshot(page, `judging-${name}`)
   if (checkAccess)
     expect(await accessibilityProblems(page), `serious accessibility problems on ${name}`).toEqual([])

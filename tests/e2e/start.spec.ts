@@ -2,8 +2,8 @@ import { mkdtempSync, readFileSync, rmSync } from 'node:fs'
 import os from 'node:os'
 import path from 'node:path'
 import mysql from 'mysql2/promise'
-import { afterAll, describe, expect, it } from 'vitest'
-import { freePort } from '../../scripts/lib/system'
+import { afterAll, describe, expect, it, vi } from 'vitest'
+import { freePort, processAlive } from '../../scripts/lib/system'
 import { runStart, startStack } from './stack'
 
 const dataDir = mkdtempSync(path.join(os.tmpdir(), 'lixivia-restart-'))
@@ -19,6 +19,7 @@ describe('npm start', () => {
     const settings = { PORT: await freePort(), DB_PORT: await freePort(), SMTP_PORT: await freePort(), DATA_DIR: dataDir }
     const first = await startStack(settings)
     expect(first.output()).toContain('Demo data written')
+    expect(first.output()).toContain(`listed at ${first.url}api/v1/dev/mail`)
     expect((await fetch(new URL('api/v1/health', first.url))).status).toBe(200)
     const writer = await mysql.createConnection({ uri: await databaseUrl(settings.DB_PORT) })
     await writer.query('INSERT INTO teams (id, name) VALUES (?, ?)', ['0190a8c4-0000-7000-8000-000000000001', 'Saltmarsh Night Market'])
@@ -43,6 +44,44 @@ describe('npm start', () => {
     }
     finally {
       expect(await second.stop()).toBe(0)
+    }
+  })
+
+  it('starts its MariaDB again after a kill -9, and starts after a kill -9 of itself', async () => {
+    const settings = { PORT: await freePort(), DB_PORT: await freePort(), SMTP_PORT: await freePort(), DATA_DIR: dataDir }
+    const serverPid = (): number => Number.parseInt(readFileSync(path.join(dataDir, 'mariadb', 'mariadbd.pid'), 'utf8'), 10)
+    const healthy = async (url: string): Promise<void> => vi.waitFor(async () => {
+      expect((await fetch(new URL('api/v1/health', url))).status).toBe(200)
+    }, { timeout: 30_000, interval: 250 })
+    let orphan: number | undefined
+    try {
+      const first = await startStack(settings)
+      const crashed = serverPid()
+      process.kill(crashed, 'SIGKILL')
+      await vi.waitFor(() => expect(first.output()).toContain('MariaDB is running again'), { timeout: 30_000, interval: 100 })
+      expect(first.output()).toContain('MariaDB stopped unexpectedly (SIGKILL)')
+      expect(serverPid()).not.toBe(crashed)
+      await healthy(first.url)
+
+      // Killed -9, the stack cannot stop its MariaDB, which keeps the data folder and its port.
+      first.child.kill('SIGKILL')
+      await first.stop()
+      orphan = serverPid()
+      expect(processAlive(orphan)).toBe(true)
+
+      const second = await startStack(settings)
+      try {
+        expect(second.output()).toContain(`Stopping the MariaDB server (pid ${orphan}) that an earlier Lixivia left running`)
+        expect(processAlive(orphan)).toBe(false)
+        await healthy(second.url)
+      }
+      finally {
+        expect(await second.stop()).toBe(0)
+      }
+    }
+    finally {
+      if (orphan && processAlive(orphan))
+        process.kill(orphan, 'SIGKILL')
     }
   })
 })

@@ -1,12 +1,13 @@
 import type { Express } from 'express'
 import type { FakeSmtp } from '../../server/mail/fake-smtp'
 import type { TestDatabase } from './helpers'
-import { eq } from 'drizzle-orm'
+import { and, eq, isNotNull } from 'drizzle-orm'
 import { SignJWT } from 'jose'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { accessTokenAudience, accessTokenIssuer } from '../../server/auth/tokens'
-import { auditLog, passwordResets, users } from '../../server/db/schema'
+import { auditLog, passwordResets, refreshTokens, users } from '../../server/db/schema'
+import { refreshGraceMs } from '../../server/services/auth.service'
 import { appWithMail, bearer, refreshCookie, register, setCookies, uniqueEmail } from './auth-helpers'
 import { buildTestApp, createTestDatabase, testJwtSecret } from './helpers'
 
@@ -63,6 +64,9 @@ describe('pOST /api/v1/auth/register', () => {
     [{ email: 'not-an-address' }, 'email'],
     [{ name: 'x'.repeat(121) }, 'name'],
     [{ name: 42 }, 'name'],
+    [{ name: 'Noor \uD800' }, 'name'],
+    [{ password: 'long enough \uDC00 password' }, 'password'],
+    [{ password: 'long enough \u0000 password' }, 'password'],
     [{ role: 'owner' }, 'role'],
   ])('answers 400 naming the field for %o', async (change, field) => {
     const body = { email: uniqueEmail('bad'), password: 'long enough password', name: 'Bad Input', ...change }
@@ -111,9 +115,10 @@ describe('pOST /api/v1/auth/refresh', () => {
     expect(second.status).toBe(200)
   })
 
-  it('revokes the whole family when a used token comes back', async () => {
+  it('revokes the whole family when a used token comes back after the grace', async () => {
     const account = await register(app, 'Ilse')
     const rotated = await request(app).post('/api/v1/auth/refresh').set('Cookie', account.cookie)
+    await database.db.update(refreshTokens).set({ usedAt: new Date(Date.now() - refreshGraceMs - 1000) }).where(and(eq(refreshTokens.userId, account.id), isNotNull(refreshTokens.usedAt)))
     const stolen = await request(app).post('/api/v1/auth/refresh').set('Cookie', account.cookie)
     expect(stolen.status).toBe(401)
     // The legitimate, newer token of the same sign-in is dead too.

@@ -1,11 +1,15 @@
+import type { AddressInfo } from 'node:net'
 import type { TestDatabase } from './helpers'
+import { once } from 'node:events'
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import os from 'node:os'
 import path from 'node:path'
+import { brotliCompressSync, gzipSync } from 'node:zlib'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { freePort } from '../../scripts/lib/system'
 import { createDatabase } from '../../server/db/client'
+import { bearer, register } from './auth-helpers'
 import { buildTestApp, createTestDatabase } from './helpers'
 
 let database: TestDatabase
@@ -72,6 +76,50 @@ describe('the API error shape', () => {
       .send(big)
     expect(response.status).toBe(413)
     expect(response.body.error.code).toBe('payload_too_large')
+  })
+})
+
+describe('bodies and paths that cannot be decoded', () => {
+  const body = JSON.stringify({ email: 'nobody@kestrel-quay.test', password: 'long enough password' })
+
+  /** Sends bytes as they are (supertest would serialise a Buffer as JSON under a JSON content type). */
+  async function postRaw(encoding: string, bytes: Buffer): Promise<{ status: number, type: string | null, body: unknown }> {
+    const server = buildTestApp(database).listen(0, '127.0.0.1')
+    await once(server, 'listening')
+    try {
+      const { port } = server.address() as AddressInfo
+      const response = await fetch(`http://127.0.0.1:${port}/api/v1/auth/login`, { method: 'POST', headers: { 'Content-Type': 'application/json', 'Content-Encoding': encoding }, body: bytes })
+      return { status: response.status, type: response.headers.get('content-type'), body: await response.json() }
+    }
+    finally {
+      server.close()
+    }
+  }
+
+  it.each([
+    ['gzip', Buffer.from('this was never gzip')],
+    ['gzip', gzipSync(body).subarray(0, 12)],
+    ['br', Buffer.from('this was never brotli')],
+    ['br', brotliCompressSync(body).subarray(0, 9)],
+    ['deflate', Buffer.from('nor deflate')],
+  ])('answers a corrupt %s body with 400 in the error shape', async (encoding, bytes) => {
+    const response = await postRaw(encoding, bytes)
+    expect(response.status).toBe(400)
+    expect(response.type).toContain('application/json')
+    expect(response.body).toEqual({ error: { code: 'malformed_body', message: expect.stringContaining('decompressed') } })
+  })
+
+  it('still reads a well-formed gzip or brotli body', async () => {
+    expect((await postRaw('gzip', gzipSync(body))).status).toBe(401)
+    expect((await postRaw('br', brotliCompressSync(body))).status).toBe(401)
+  })
+
+  it.each(['/api/v1/teams/%E0%A4%A/members', '/api/v1/teams/%E0%A4%A', '/api/v1/teams/%ZZ/invitations'])('answers the broken percent-encoding in %s with 400', async (route) => {
+    const app = buildTestApp(database)
+    const account = await register(app, 'Percy')
+    const response = await request(app).get(route).set(...bearer(account))
+    expect(response.status).toBe(400)
+    expect(response.body).toEqual({ error: { code: 'bad_request', message: expect.stringContaining('percent-encoding') } })
   })
 })
 

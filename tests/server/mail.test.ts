@@ -5,9 +5,13 @@ import os from 'node:os'
 import path from 'node:path'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { mailNotice } from '../../scripts/lib/stack'
+import { freePort } from '../../scripts/lib/system'
+import { parseEnv, servesDevMail } from '../../server/env'
+import { serve } from '../../server/index'
 import { startFakeSmtp } from '../../server/mail/fake-smtp'
 import { createMailer } from '../../server/mail/mailer'
-import { buildTestApp, createTestDatabase } from './helpers'
+import { buildTestApp, createTestDatabase, testJwtSecret } from './helpers'
 
 let smtp: FakeSmtp
 let mailDir: string
@@ -53,5 +57,56 @@ describe('gET /api/v1/dev/mail', () => {
   it('does not exist when no dev mailbox is given (production)', async () => {
     const response = await request(buildTestApp(database)).get('/api/v1/dev/mail')
     expect(response.status).toBe(404)
+  })
+})
+
+describe('servesDevMail', () => {
+  it.each([
+    ['development', '127.0.0.1', true],
+    ['test', '::1', true],
+    ['development', 'localhost', true],
+    ['development', '0.0.0.0', false],
+    ['development', '::', false],
+    ['development', '192.168.4.20', false],
+    ['development', 'crew.lixivia.test', false],
+    ['production', '127.0.0.1', false],
+  ] as const)('with NODE_ENV %s and HOST %s is %s', (NODE_ENV, HOST, expected) => {
+    expect(servesDevMail({ NODE_ENV, HOST })).toBe(expected)
+  })
+})
+
+describe('mailNotice', () => {
+  const smtp = { port: 2526, dir: 'data/mail' }
+  it('gives the listing\'s address on loopback in development', () => {
+    expect(mailNotice({ NODE_ENV: 'development', HOST: '127.0.0.1' }, smtp, 'http://127.0.0.1:8080/')).toContain('listed at http://127.0.0.1:8080/api/v1/dev/mail')
+  })
+
+  it.each([['development', '0.0.0.0'], ['production', '127.0.0.1']] as const)('points to the mail folder instead with NODE_ENV %s and HOST %s', (NODE_ENV, HOST) => {
+    const notice = mailNotice({ NODE_ENV, HOST }, smtp, `http://${HOST}:8080/`)
+    expect(notice).toContain('kept in data/mail')
+    expect(notice).toContain('read the files there')
+    expect(notice).not.toContain('listed at')
+  })
+})
+
+describe('the mail listing of a running server', () => {
+  async function listingStatus(host: string): Promise<number> {
+    const port = await freePort()
+    const env = parseEnv({ DATABASE_URL: database.url, JWT_SECRET: testJwtSecret, NODE_ENV: 'development', HOST: host, PORT: String(port), DATA_DIR: mailDir, LOG_LEVEL: 'silent' })
+    const running = await serve(env)
+    try {
+      return (await fetch(`http://127.0.0.1:${port}/api/v1/dev/mail`)).status
+    }
+    finally {
+      await running.close()
+    }
+  }
+
+  it('is served while the app listens on loopback only', async () => {
+    expect(await listingStatus('127.0.0.1')).toBe(200)
+  })
+
+  it('is not served when the app listens on every interface, whoever asks', async () => {
+    expect(await listingStatus('0.0.0.0')).toBe(404)
   })
 })

@@ -43,7 +43,7 @@ const cases: [string, () => unknown, string][] = [
   ['a verdict on 0 % extraction', () => b.zoneVerdict(b.zonePresets[0]!, { tdsPercent: 1.3, yieldPercent: 0 }), 'yieldPercent'],
   ['a zone without a name', () => b.defineZone({ id: 'z', name: ' ', tdsPercent: { min: 1, max: 2 }, yieldPercent: { min: 18, max: 22 } }), 'name'],
   ['a cupping bowl of 0 mL', () => b.cuppingDose(0), 'waterMl'],
-  ['a brew ratio with no water', () => b.brewRatio(15, 0), 'waterMass'],
+  ['a brew ratio with no beverage', () => b.brewRatio(15, 0), 'beverageMass'],
   ['rounding to 1.5 decimals', () => b.roundHalfUp(1.2, 1.5), 'decimals'],
   ['rounding NaN', () => b.roundHalfUp(Number.NaN, 2), 'value'],
   ['a scale resolution of −0.1 g', () => b.formatMass(18, -0.1), 'resolution'],

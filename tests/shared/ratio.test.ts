@@ -1,19 +1,51 @@
+import type { BrewInput } from '../../shared/brewing'
 import { describe, expect, it } from 'vitest'
-import { brewRatio, cuppingDose, cuppingRatio, formatRatio, gramsPerLitre, gramsPerLitreFromRatio, ratioFromGramsPerLitre } from '../../shared/brewing'
+import { brewRatio, brewRatioOf, computeBrew, cuppingDose, cuppingRatio, formatRatio, gramsPerLitre, ratioText } from '../../shared/brewing'
 
-describe('brew ratio both ways', () => {
-  it('writes 15 g on 250 g of water as 1:16.7 and 60 g/L', () => {
-    expect(formatRatio(brewRatio(15, 250))).toBe('1:16.7')
+describe('brewRatio', () => {
+  it('writes 36 g of espresso from 18 g as 1:2.0, grams of beverage per gram of coffee', () => {
+    expect(ratioText(brewRatio(18, 36))).toBe('1:2.0 (grams of beverage per gram of coffee)')
+  })
+
+  it('rounds half up: 240.75 g from 15 g is 16.05, shown 1:16.1', () => {
+    expect(formatRatio(brewRatio(15, 240.75))).toBe('1:16.1')
+  })
+})
+
+describe('brewRatioOf', () => {
+  const direct = { method: 'percolation' as const, strengthSource: 'direct' as const, readings: [1.35] }
+
+  it.each<[string, BrewInput]>([
+    ['a weighed percolation', { ...direct, dose: 15, beverageMass: 240 }],
+    ['a percolation reckoned from its water', { ...direct, dose: 15, waterMass: 270 }],
+    ['an espresso', { ...direct, method: 'espresso' as const, readings: [9.5], dose: 18, beverageMass: 38.5 }],
+    ['a full immersion by its water', { ...direct, method: 'immersion' as const, readings: [1.2], dose: 10, waterMass: 180 }],
+    ['a decanted immersion', { ...direct, method: 'immersion' as const, readings: [1.3], dose: 12, beverageMass: 170, retainedRatio: 3 }],
+  ])('puts %s on the chart line of its ratio: EY / TDS', (_what, input) => {
+    const result = computeBrew(input)
+    const ratio = brewRatioOf(result, input.waterMass ?? null)!
+    expect(ratio.ratio).toBeCloseTo(result.yieldPercent! / result.tdsPercent!, 10)
+  })
+
+  it('says a beverage reckoned from the water is an estimate', () => {
+    const result = computeBrew({ ...direct, dose: 15, waterMass: 270 })
+    // (270 − 2.0 × 15) / 15 = 16.0 with the common-practice LRR of 2.0 g/g.
+    expect(brewRatioOf(result, 270)).toEqual({ ratio: 16, estimated: true })
+  })
+
+  it('gives a full immersion without readings its water per gram, as an estimate', () => {
+    const result = computeBrew({ method: 'immersion', strengthSource: 'direct', readings: [], dose: 10, waterMass: 180 })
+    expect(brewRatioOf(result, 180)).toEqual({ ratio: 18, estimated: true })
+  })
+
+  it('gives none before the dose is known', () => {
+    expect(brewRatioOf(computeBrew({ ...direct, beverageMass: 240 }), null)).toBeNull()
+  })
+})
+
+describe('gramsPerLitre', () => {
+  it('puts 15 g in 250 g of water at 60 g/L', () => {
     expect(gramsPerLitre(15, 250)).toBeCloseTo(60, 10)
-  })
-
-  it('turns 60 g/L into 1:16.7 and back', () => {
-    expect(ratioFromGramsPerLitre(60)).toBeCloseTo(16.667, 3)
-    expect(gramsPerLitreFromRatio(ratioFromGramsPerLitre(60))).toBeCloseTo(60, 10)
-  })
-
-  it('puts the US drip standard\'s 55 g/L at about 1:18.2 (SCAA brewing standard)', () => {
-    expect(formatRatio(ratioFromGramsPerLitre(55))).toBe('1:18.2')
   })
 })
 

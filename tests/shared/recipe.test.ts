@@ -9,7 +9,8 @@ describe('solveRecipe', () => {
     const recipe = solveRecipe({ targetTdsPercent: 1.35, targetYieldPercent: 21.6, dose: 15, method: 'percolation' })
     expect(recipe.beverageMass).toBeCloseTo(240, 10)
     expect(recipe.waterMass).toBeCloseTo(270, 10)
-    expect(recipe.brewRatio).toBeCloseTo(18, 10)
+    // Brew ratio in grams of beverage per gram of coffee: 240 / 15 = 16.
+    expect(recipe.brewRatio).toBeCloseTo(16, 10)
   })
 
   it('solves an espresso from the beverage wanted: 36 g at 10 %TDS and 20 % needs 18 g', () => {

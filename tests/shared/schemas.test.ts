@@ -55,3 +55,15 @@ describe('recordSchemaOf', () => {
     expect(recordSchemaOf('brew').safeParse({ ...envelope, label: 'Bar pen' }).success).toBe(false)
   })
 })
+
+describe('a lot stored before the grading fields existed', () => {
+  it('reads with their defaults, and keeps what it had', () => {
+    const old = { ...envelope, tripId: null, farm: 'Alder Ridge Estate', region: 'North Terraces', variety: 'Typica', process: 'washed', moisturePercent: 10.8, lotSizeKg: 1380, askingPrice: 7.4, currency: 'EUR', notes: '' }
+    const lot = recordSchemaOf('lot').parse(old)
+    expect(lot).toMatchObject({ farm: 'Alder Ridge Estate', moisturePercent: 10.8, decision: 'open', priceUnit: 'kg', bags: null, waterActivity: null, screenSize: '', decisionReason: '' })
+  })
+
+  it('and a brew context without a cupping table stays as it was', () => {
+    expect(entityDataSchemas.brew.shape.context.parse({ kind: 'lot', refId: envelope.id })).toEqual({ kind: 'lot', refId: envelope.id })
+  })
+})

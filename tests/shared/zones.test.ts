@@ -36,6 +36,13 @@ describe('zoneVerdict', () => {
     expect(verdict.adjustments[0]).toMatch(/grind finer.*contact time.*hotter/)
   })
 
+  it('sizes the extraction advice: 16.8 % against 18–22 % is 3.2 points short of the middle', () => {
+    // The middle of 18–22 % is 20.0 %; 20.0 − 16.8 = 3.2 points.
+    const verdict = zoneVerdict(us, { tdsPercent: 1.25, yieldPercent: 16.8 })
+    expect(verdict.yieldGap).toBeCloseTo(3.2, 10)
+    expect(verdict.adjustments[0]).toMatch(/^Raise the extraction about 3\.2 points \(from 16\.8 % to 20\.0 %, the middle of the zone\): grind finer/)
+  })
+
   it('tells an over-extracted brew to grind coarser, brew shorter or cooler', () => {
     const verdict = zoneVerdict(us, { tdsPercent: 1.3, yieldPercent: 23.4 })
     expect(verdict.extraction).toBe('high')
@@ -48,13 +55,14 @@ describe('zoneVerdict', () => {
     expect(verdict).toMatchObject({ strength: 'low', extraction: 'in', headline: 'Weak' })
     expect(verdict.beverageRatio.target).toBeCloseTo(16, 10)
     expect(verdict.beverageRatio.current).toBeCloseTo(19.05, 2)
-    expect(verdict.adjustments[0]).toContain('16.0 g of beverage per gram instead of 19.0')
+    // 20 / 1.05 = 19.048, shown half up as 1:19.0.
+    expect(verdict.adjustments[0]).toContain('brew ratio about 1:16.0 instead of 1:19.0 (grams of beverage per gram of coffee)')
   })
 
-  it('tells a strong brew to use more water per gram of coffee', () => {
+  it('tells a strong brew to use more beverage per gram of coffee', () => {
     const verdict = zoneVerdict(us, { tdsPercent: 1.5, yieldPercent: 20 })
     expect(verdict.strength).toBe('high')
-    expect(verdict.adjustments[0]).toContain('more water per gram')
+    expect(verdict.adjustments[0]).toContain('more beverage per gram of coffee')
   })
 
   it('says to fix extraction first when both axes are off', () => {
