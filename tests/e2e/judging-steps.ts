@@ -41,3 +41,18 @@ export async function storedRecords(page: Page, table: string): Promise<Record<s
     }
   }), table)
 }
+
+/**
+ * Waits until a saved form's page has replaced the blank one: the address is the record's, and one
+ * element of the name shows, steadily, for half a second (Ionic keeps the leaving page in view
+ * while it slides away).
+ */
+export async function settledOn(page: Page, address: RegExp, name: string): Promise<void> {
+  await page.waitForURL(address)
+  let steady = 0
+  for (let waited = 0; steady < 10 && waited < 10_000; waited += 50) {
+    steady = (await onScreen(page, name).count()) === 1 ? steady + 1 : 0
+    await page.waitForTimeout(50)
+  }
+  expect(steady).toBe(10)
+}

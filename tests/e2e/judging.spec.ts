@@ -4,7 +4,7 @@ import Papa from 'papaparse'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { isBlindCode } from '../../shared/records/blind-codes'
 import { accessibilityProblems, fillField, launchBrowser, newestMailTo, onScreen, phoneContext, screenshot, signIn, watchErrors } from './browser'
-import { measurePour, storedRecords } from './judging-steps'
+import { measurePour, settledOn, storedRecords } from './judging-steps'
 
 // The head judge (the demo lead) runs a heat at a brew bar whose Wi-Fi fails; a judge (the demo
 // member) works on a phone of their own. Seeded accounts: server/db/seed.ts.
@@ -62,6 +62,7 @@ describe('a competition heat, end to end', () => {
     await shot(head, 'event-form')
     await onScreen(head, 'event-save').click()
     await expect.poll(() => onScreen(head, 'event-summary').innerText()).toContain('0.05 %TDS · 0.5 % EY')
+    await settledOn(head, /\/field\/events\/(?!new)[^/]+$/, 'add-round')
   })
 
   it('adds a round of two pours per cup, two readings each, and three cups under blind codes', async () => {
@@ -70,6 +71,7 @@ describe('a competition heat, end to end', () => {
     await fillField(head, 'round-readings', '2')
     await onScreen(head, 'round-judges').locator('ion-toggle', { hasText: 'Mats Quillon' }).click()
     await onScreen(head, 'round-save').click()
+    await settledOn(head, /\/setup$/, 'add-cup')
     for (const name of competitors) {
       await fillField(head, 'cup-competitor', name)
       await onScreen(head, 'add-cup').click()
