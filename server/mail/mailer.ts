@@ -1,11 +1,19 @@
 import type { Transporter } from 'nodemailer'
 import nodemailer from 'nodemailer'
 
+/** A file sent with a message (a round's results as CSV). */
+export interface MailAttachment {
+  filename: string
+  content: string | Buffer
+  contentType: string
+}
+
 export interface OutgoingMail {
   to: string
   subject: string
   text: string
   html?: string
+  attachments?: MailAttachment[]
 }
 
 export interface Mailer {

@@ -1,11 +1,14 @@
 import { z } from 'zod'
 import { readingRanges } from '../brewing/readings'
 import { BrewMethodSchema, CalibrationPointSchema, RangeSchema, ReadingKindSchema } from './brewing'
+import { EntryDataSchema, EventDataSchema, RoundDataSchema, SignoffDataSchema, ZeroCheckDataSchema } from './competition'
 import { CuppingTableDataSchema, lotGradingFields, PhotoDataSchema, ScoreDataSchema, ScoreSheetDataSchema } from './origin'
 import { freeText, IdSchema, nameText } from './primitives'
 
 // What a phone may write for each kind of record. Derived values (a calibration's fit, a brew's
 // strength and yield) are not here: the server computes them with shared/brewing.
+
+export { EntryDataSchema, EventDataSchema, RoundDataSchema, SignoffDataSchema, ZeroCheckDataSchema }
 
 const id = IdSchema
 const name = nameText(120)
@@ -98,16 +101,6 @@ export const ReadingDataSchema = z.strictObject({
     ctx.issues.push({ code: 'custom', path: ['value'], input: ctx.value.value, message: `must be a reading from ${range.min} to ${range.max} in ${ctx.value.kind}` })
 })
 
-export const EventDataSchema = z.strictObject({ name, venue: freeText(120).default(''), startsOn: day.nullable().default(null), endsOn: day.nullable().default(null), zoneId: freeText(64).default('us-drip') })
-export const RoundDataSchema = z.strictObject({
-  eventId: id,
-  name,
-  position: z.number().int().min(0).max(1000),
-  /** Largest allowed distance from the target, per axis, before a cup is flagged. */
-  toleranceTdsPercent: z.number().nonnegative().max(5).nullable().default(null),
-  toleranceYieldPercent: z.number().nonnegative().max(20).nullable().default(null),
-})
-export const EntryDataSchema = z.strictObject({ roundId: id, code: nameText(20), contestant: freeText(120).default(''), notes: freeText(2000).default('') })
 export const TripDataSchema = z.strictObject({ name, origin: freeText(120).default(''), startsOn: day.nullable().default(null), endsOn: day.nullable().default(null), notes: freeText(2000).default('') })
 export const LotDataSchema = z.strictObject({
   tripId: id.nullable().default(null),
@@ -234,6 +227,8 @@ export const entityDataSchemas = {
   recipe: RecipeDataSchema,
   zone: ZoneDataSchema,
   zoneDefault: ZoneDefaultDataSchema,
+  signoff: SignoffDataSchema,
+  zeroCheck: ZeroCheckDataSchema,
   cuppingTable: CuppingTableDataSchema,
   scoreSheet: ScoreSheetDataSchema,
   score: ScoreDataSchema,

@@ -70,6 +70,7 @@ export function createSyncEngine(options: SyncEngineOptions) {
   const schedule = options.schedule ?? wait
   const isOnline = options.isOnline ?? (() => true)
   let running: Promise<void> | null = null
+  let queued: Promise<void> | null = null
   let failures = 0
   /** Records of this run's pulls that this version could not read. */
   let unreadable = 0
@@ -265,9 +266,17 @@ export function createSyncEngine(options: SyncEngineOptions) {
     }
   }
 
-  /** Pushes everything queued, then pulls every team; one run at a time. */
+  // Pushes everything queued, then pulls every team; one run at a time, and one more after it for a
+  // call during a run (a cup saved while the last went out), so nothing saved waits for a timer.
   function syncNow(): Promise<void> {
-    running ??= run().finally(() => {
+    if (running) {
+      queued ??= running.catch(() => undefined).then(() => {
+        queued = null
+        return syncNow()
+      })
+      return queued
+    }
+    running = run().finally(() => {
       running = null
     })
     return running
