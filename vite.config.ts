@@ -4,7 +4,7 @@ import { defineConfig } from 'vite'
 import { VitePWA } from 'vite-plugin-pwa'
 import { configDefaults } from 'vitest/config'
 import pkg from './package.json' with { type: 'json' }
-import { precompress } from './scripts/lib/precompress'
+import { precompress } from './scripts/lib/precompress.ts'
 
 const apiTarget = `http://127.0.0.1:${process.env.PORT ?? '8080'}`
 
