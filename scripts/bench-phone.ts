@@ -11,6 +11,7 @@ import path from 'node:path'
 import { brotliDecompressSync, gunzipSync } from 'node:zlib'
 import mysql from 'mysql2/promise'
 import { runMigrations } from '../server/db/migrate'
+import { pullPageSize } from '../shared/schemas/sync'
 import { ensureClientBuilt } from './lib/build'
 import { startMariaDb } from './lib/mariadb'
 import { launch, measurePhone } from './lib/phone-browser'
@@ -20,7 +21,7 @@ import { ensureDebianPackage, freePort } from './lib/system'
 
 const brews = Number(process.env.BENCH_BREWS ?? 20_000)
 const readingsPerBrew = 2
-const pageSize = Number(process.env.BENCH_PULL_PAGE ?? 500)
+const pageSize = Number(process.env.BENCH_PULL_PAGE ?? pullPageSize)
 const limitSeconds = Number(process.env.BENCH_TIMEOUT_MS ?? 90_000) / 1000
 const account = { email: 'year@kestrel-quay.test', password: 'benchmark only 2026', name: 'Year Bench' }
 

@@ -199,26 +199,35 @@ export function createSyncEngine(options: SyncEngineOptions) {
   /**
    * Pulls a team page by page after its cursor. Each page and its cursor are kept in one
    * transaction over the tables it touches only, so a dropped connection resumes after the last
-   * page kept, and screens reading other tables are not held up meanwhile.
+   * page kept, and screens reading other tables are not held up meanwhile. The next page is asked
+   * for as soon as this one arrives, so the server and the network work while the phone stores.
    */
   async function pullTeam(teamId: string): Promise<void> {
     const cursorKey = `cursor:${teamId}`
-    let since = Number((await database.meta.get(cursorKey))?.value ?? 0)
+    const since = Number((await database.meta.get(cursorKey))?.value ?? 0)
     let received = 0
+    let next: Promise<PullResponse> | null = transport.pull(teamId, since, pullLimit)
     for (let more = true; more;) {
-      const page = await transport.pull(teamId, since, pullLimit)
+      const page: PullResponse = await next!
+      next = page.hasMore ? transport.pull(teamId, page.cursor, pullLimit) : null
+      // A failure of the page asked ahead is met when it is awaited; until then it must not go unhandled.
+      next?.catch(() => {})
       const byEntity = new Map<EntityName, Change[]>()
       for (const change of page.changes) {
         // A kind of record a newer server has and this version does not know is passed over.
-        if (isEntityName(change.entity))
-          byEntity.set(change.entity, [...(byEntity.get(change.entity) ?? []), change])
+        if (!isEntityName(change.entity))
+          continue
+        const list = byEntity.get(change.entity)
+        if (list)
+          list.push(change)
+        else
+          byEntity.set(change.entity, [change])
       }
       await database.transaction('rw', [database.meta, ...[...byEntity.keys()].map(entity => database.records[entity])], async () => {
         for (const [entity, changes] of byEntity)
           unreadable += await takeAll(entity, changes)
         await database.meta.put({ key: cursorKey, value: page.cursor })
       })
-      since = page.cursor
       more = page.hasMore
       received += page.changes.length
       if (more || status.progress)
