@@ -11,7 +11,7 @@ import { eachBrewChunk, figuresOf } from '../db/ledgerQueries'
  * index alone beyond that. Read again
  * when the brews kept change, a moment after the last change (a sync brings them in pages).
  */
-export function useChartPoints(teamId: Ref<string | null>, ids: Ref<string[]>, labelOf: (brew: LocalRecord<'brew'>) => string) {
+export function useChartPoints(teamId: Ref<string | null>, ids: Ref<string[]>, idsRead: Ref<boolean>, labelOf: (brew: LocalRecord<'brew'>) => string) {
   const points = shallowRef<ChartPoint[]>([])
   const ready = shallowRef(false)
   let run = 0
@@ -38,8 +38,11 @@ export function useChartPoints(teamId: Ref<string | null>, ids: Ref<string[]>, l
       ready.value = true
     }
   }
-  watch(ids, (list) => {
+  // Nothing is read before the ids are (an empty list at first is not "no brews").
+  watch([ids, idsRead], ([list, known]) => {
     clearTimeout(timer)
+    if (!known)
+      return
     if (!ready.value)
       return void read(list)
     timer = setTimeout(() => void read(list), 300)

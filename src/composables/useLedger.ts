@@ -18,7 +18,7 @@ const filters = ref<LedgerFilters>({ ...noFilters })
  */
 export function useLedger(teamId: Ref<string | null>, zoneFor: ZoneFor) {
   const { value: ids, state } = useLiveQuery(async () => (teamId.value ? ledgerIds(teamId.value, filters.value, zoneFor) : []), [] as string[], computed(() => [teamId.value, filters.value]))
-  const { value: total } = useLiveQuery(async () => (teamId.value ? countBrews(teamId.value) : 0), 0, teamId)
+  const { value: total, state: counted } = useLiveQuery(async () => (teamId.value ? countBrews(teamId.value) : 0), 0, teamId)
   const filtered = computed(() => Object.entries(filters.value).some(([key, value]) => value !== noFilters[key as keyof LedgerFilters]))
-  return { filters, ids, total, filtered, state }
+  return { filters, ids, total, counted, filtered, state }
 }

@@ -167,18 +167,18 @@ export function createSyncEngine(options: SyncEngineOptions) {
   }
 
   /**
-   * Keeps one entity's share of a pulled page: the phone's copies read in one request, the server's
-   * written in one bulkPut. A record with changes of its own here is settled by its push, never
-   * overwritten. Returns how many records this version could not read (they are skipped, not stored).
+   * Keeps one entity's share of a pulled page, written in one bulkPut. A record with changes of its
+   * own here is settled by its push, never overwritten: those are found on the sync-state index
+   * (a handful at most), not by reading the phone's copy of every record in the page. Returns how
+   * many records this version could not read (they are skipped, not stored).
    */
   async function takeAll<E extends EntityName>(entity: E, changes: Change[]): Promise<number> {
     const table = database.records[entity]
-    const locals = await table.bulkGet(changes.map(change => change.id))
+    const own = new Set(await table.where('sync.state').anyOf(['pending', 'conflict', 'rejected']).primaryKeys())
     const kept: LocalRecord<E>[] = []
     let skipped = 0
-    changes.forEach((change, index) => {
-      const local = locals[index]
-      if (local && local.sync.state !== 'clean')
+    changes.forEach((change) => {
+      if (own.has(change.id))
         return
       const record = readServerRecord(entity, change.data)
       if (record)
