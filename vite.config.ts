@@ -6,6 +6,7 @@ import { configDefaults } from 'vitest/config'
 import pkg from './package.json' with { type: 'json' }
 import { chunkFileName, ionicComponentsApart } from './scripts/lib/ionic-apart.ts'
 import { precompress } from './scripts/lib/precompress.ts'
+import { preloadFirstScreen } from './scripts/lib/preload-first-screen.ts'
 
 const apiTarget = `http://127.0.0.1:${process.env.PORT ?? '8080'}`
 
@@ -71,6 +72,7 @@ export default defineConfig({
         cleanupOutdatedCaches: true,
       },
     }),
+    preloadFirstScreen(['src/views/SignInPage.vue', 'src/stores/session.ts']),
     precompress(),
   ],
   define: {

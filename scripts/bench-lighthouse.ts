@@ -37,6 +37,10 @@ try {
   const row = (name: string, value: string, target: string, ok: boolean | null) => console.log(`${name.padEnd(34)} ${value.padStart(10)}   ${target.padEnd(10)} ${ok === null ? '' : ok ? 'ok' : 'MISSED'}`)
   const seconds = (value: number | null) => (value === null ? '—' : `${(value / 1000).toFixed(2)} s`)
   console.log(`Lighthouse ${result.lhr.lighthouseVersion}, ${result.lhr.configSettings.formFactor} profile, on /sign-in\n`)
+  if (result.lhr.runtimeError)
+    console.log(`Lighthouse could not measure the page: ${result.lhr.runtimeError.code} ${result.lhr.runtimeError.message}`)
+  const broken = ['first-contentful-paint', 'largest-contentful-paint'].map(id => audits[id]).filter(audit => audit?.errorMessage)
+  broken.forEach(audit => console.log(`${audit!.id}: ${audit!.errorMessage}`))
   row('performance', String(score('performance')), '≥ 0.95', (score('performance') ?? 0) >= 0.95)
   row('accessibility', String(score('accessibility')), '1.0', score('accessibility') === 1)
   row('best practices', String(score('best-practices')), '', null)
@@ -48,6 +52,9 @@ try {
   const saving = (id: string) => audits[id]?.details && 'overallSavingsBytes' in audits[id].details! ? Number(audits[id].details!.overallSavingsBytes) : 0
   row('to save by text compression', `${(saving('uses-text-compression') / 1024).toFixed(0)} KiB`, '', null)
   row('unused JavaScript', `${(saving('unused-javascript') / 1024).toFixed(0)} KiB`, '', null)
+  const lcpElement = audits['largest-contentful-paint-element']?.details
+  if (process.env.BENCH_VERBOSE && lcpElement)
+    console.log(JSON.stringify(lcpElement, null, 1).slice(0, 3000))
   const failing = Object.values(audits).filter(audit => audit.score !== null && audit.score < 1 && result.lhr.categories.accessibility?.auditRefs.some(ref => ref.id === audit.id))
   if (failing.length)
     console.log(`accessibility audits not passed: ${failing.map(audit => audit.id).join(', ')}`)
