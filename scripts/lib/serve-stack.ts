@@ -81,8 +81,6 @@ export async function runServeStack(): Promise<void> {
     }
     const fingerprint = caddy?.rootCertificate ? fingerprintOf(caddy.rootCertificate) : undefined
     const setup = site?.mode === 'venue' ? `http://${site.hosts[0]}${site.httpPort === 80 ? '' : `:${site.httpPort}`}${phonePagePath}` : `${env.PUBLIC_URL}${phonePagePath.slice(1)}`
-    logger.info({ url: env.PUBLIC_URL, phonePage: setup, mode: site?.mode ?? 'behind another proxy', rootFingerprint: fingerprint }, 'Lixivia is ready')
-
     // For the person at the terminal, beside the JSON lines: where phones go, and a code to scan.
     const scan = site?.mode === 'venue' ? setup : env.PUBLIC_URL
     process.stderr.write([
@@ -92,6 +90,7 @@ export async function runServeStack(): Promise<void> {
       fingerprint ? `Certificate fingerprint (SHA-256), as the phone page shows it: ${fingerprint}` : '',
       await terminalQr(scan),
     ].filter(Boolean).join('\n'))
+    logger.info({ url: env.PUBLIC_URL, phonePage: setup, mode: site?.mode ?? 'behind another proxy', rootFingerprint: fingerprint }, 'Lixivia is ready')
   }
   catch (error) {
     logger.fatal(startFailure(error))
