@@ -68,7 +68,10 @@ function globalOptions(site: ProxySite): string[] {
 function proxy(site: ProxySite, indent: string): string[] {
   if (site.upstreams.length === 1)
     return [`${indent}reverse_proxy ${site.upstreams[0]}`]
-  // Several instances of the stateless API: each request to the next one, skipping one that is down.
+  // Several instances of the stateless API: each request to the next one, skipping one the health
+  // route finds down; a request that could not reach an instance goes to another. One that met an
+  // instance as it stopped gets a 502: the phone sends its push again (the same mutation ids, so
+  // nothing is applied twice). Debian's Caddy 2.6 cannot replay a request body, so it is not asked to.
   return [
     `${indent}reverse_proxy ${site.upstreams.join(' ')} {`,
     `${indent}\tlb_policy round_robin`,

@@ -67,7 +67,7 @@ export async function startServe(settings: Record<string, string | number>, time
 }
 
 /** A JSON request over HTTPS to loopback for a named site, trusting only the given root certificate. */
-export function httpsJson<T = unknown>(options: { port: number, host: string, ca: string, path: string, method?: string, body?: unknown, token?: string }): Promise<{ status: number, body: T }> {
+export function httpsJson<T = unknown>(options: { port: number, host: string, ca: string, path: string, method?: string, body?: unknown, token?: string, headers?: Record<string, string> }): Promise<{ status: number, body: T }> {
   const payload = options.body === undefined ? undefined : JSON.stringify(options.body)
   return new Promise((resolve, reject) => {
     const request = https.request({
@@ -77,7 +77,7 @@ export function httpsJson<T = unknown>(options: { port: number, host: string, ca
       ca: options.ca,
       method: options.method ?? 'GET',
       path: options.path,
-      headers: { 'Host': `${options.host}:${options.port}`, 'Content-Type': 'application/json', ...(options.token ? { Authorization: `Bearer ${options.token}` } : {}) },
+      headers: { 'Host': `${options.host}:${options.port}`, 'Content-Type': 'application/json', ...(options.token ? { Authorization: `Bearer ${options.token}` } : {}), ...options.headers },
     }, (response) => {
       let text = ''
       response.on('data', (chunk: Buffer) => (text += chunk.toString()))
