@@ -21,12 +21,14 @@ import { authRoutes } from './routes/auth.routes'
 import { devMailRoutes } from './routes/dev-mail.routes'
 import { healthRoutes } from './routes/health.routes'
 import { photoRoutes } from './routes/photos.routes'
+import { resultsRoutes } from './routes/results.routes'
 import { roundRoutes } from './routes/rounds.routes'
 import { syncRoutes } from './routes/sync.routes'
 import { teamRoutes } from './routes/teams.routes'
 import { createAuthService } from './services/auth.service'
 import { createInvitationsService } from './services/invitations.service'
 import { createPhotosService } from './services/photos.service'
+import { createResultsService } from './services/results.service'
 import { createRoundsService } from './services/rounds.service'
 import { createSyncService } from './services/sync.service'
 import { createTeamsService } from './services/teams.service'
@@ -120,6 +122,7 @@ export function createApp(deps: AppDeps): Express {
   const auth = createAuthService({ db, tokens, mailer: deps.mailer, publicUrl: deps.publicUrl })
   const sync = createSyncService({ db, teams, hooks: deps.syncHooks })
   const rounds = createRoundsService({ db, teams })
+  const results = createResultsService({ db, teams, mailer: deps.mailer })
 
   const api = express.Router()
   api.use(noStore)
@@ -132,6 +135,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(teamRoutes(teams, invitations))
   api.use(syncRoutes(sync))
   api.use(roundRoutes(rounds))
+  api.use(resultsRoutes(results))
   api.use(photoRoutes(createPhotosService({ teams, files: deps.files })))
   app.use('/api/v1', api)
   app.use('/api', apiNotFound)

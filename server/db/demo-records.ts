@@ -1,15 +1,17 @@
 import type { DemoMutation, DemoPhoto } from './demo-origin'
 import { v7 as uuidv7 } from 'uuid'
 import { brixToRefractiveIndex, defaultBrixFactor } from '../../shared/brewing'
+import { demoCompetition } from './demo-competition'
 import { demoOrigin } from './demo-origin'
 
 /**
  * The demo team's records, all invented: two refractometers (one calibrated with sucrose
  * standards), a recipe with its versions, a buying trip with four lots cupped on a table
- * (demo-origin.ts), an event round with three cups, a week of brews measured against them, and a
- * dial-in at a night market of five attempts whose last became the crew's house recipe. Returned
- * per author, in the order they must be pushed, with the photos whose pictures the seed stores. An
- * edit of a record pushed earlier goes with that record's rev, which the seed fills in as it pushes.
+ * (demo-origin.ts), a competition with a signed-off heat and one under way (demo-competition.ts), a
+ * week of brews measured against them, and a dial-in at a night market of five attempts whose last
+ * became the crew's house recipe. Returned per author, in the order they must be pushed, with the
+ * photos whose pictures the seed stores. An edit of a record pushed earlier goes with that record's
+ * rev, which the seed fills in as it pushes.
  */
 export function demoRecords(teamId: string, people: { owner: string, lead: string, member: string }, now = Date.now()): { userId: string, mutations: DemoMutation[], photos?: DemoPhoto[] }[] {
   const put = (entity: string, data: Record<string, unknown>, id = uuidv7()): DemoMutation => ({ mutationId: uuidv7(), entity, op: 'put', id, teamId, data, baseRev: null })
@@ -25,9 +27,7 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
   const recipeId = uuidv7()
   const firstVersion = put('recipeVersion', { recipeId, number: 1, basedOnId: null, reason: 'The crew\'s filter as brewed at the quay', settings: houseFilter })
   const recipe = put('recipe', { ...houseFilter, versionId: firstVersion.id }, recipeId)
-  const event = put('event', { name: 'Kestrel Quay Brewers Open', venue: 'Net Loft Hall', startsOn: at(1, 0).slice(0, 10), endsOn: at(1, 0).slice(0, 10), zoneId: 'european-drip' })
-  const heat = put('round', { eventId: event.id, name: 'Heat 1', position: 1, toleranceTdsPercent: 0.1, toleranceYieldPercent: 1 })
-  const cups = ['K1', 'K2', 'K3'].map(code => put('entry', { roundId: heat.id, code, contestant: '', notes: '' }))
+  const competition = demoCompetition(put, people, pen, at, now)
 
   const brew = (data: Record<string, unknown>, values: number[], kind: string, instrument: DemoMutation, calibration: DemoMutation | null): DemoMutation[] => {
     const made = put('brew', { context: { kind: 'quick', refId: null }, instrumentId: instrument.id, calibrationId: calibration?.id ?? null, strengthSource: calibration ? 'calibration' : 'direct', ...data })
@@ -55,7 +55,7 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
   const secondVersion = put('recipeVersion', { recipeId, number: 2, basedOnId: firstVersion.id, reason: 'Attempt 5 of the dial-in at Gullstone Night Market: new burrs grind coarser', settings: adopted, fromBrewId: fifth.id })
 
   return [
-    { userId: people.owner, mutations: [prism, pen, line, firstVersion, recipe, ...origin.setup, event, heat, ...cups] },
+    { userId: people.owner, mutations: [prism, pen, line, firstVersion, recipe, ...origin.setup, ...competition.setUp] },
     {
       userId: people.member,
       mutations: [
@@ -75,10 +75,11 @@ export function demoRecords(teamId: string, people: { owner: string, lead: strin
       userId: people.owner,
       mutations: [
         ...brew({ method: 'espresso', dose: 18, beverageMass: 38.5, grindSetting: '2.4', contactTimeSeconds: 29, waterTemperatureC: 93, notes: 'Guest espresso', brewedAt: at(2, 14) }, [9.4, 9.5, 9.45], 'tds', pen, null),
-        ...brew({ context: { kind: 'entry', refId: cups[0]!.id }, method: 'percolation', doseGross: 28.5, doseTare: 12.5, beverageGross: 662.6, beverageTare: 412.6, notes: '', brewedAt: at(1, 10) }, [1.38, 1.39, 1.38], 'tds', pen, null),
-        ...brew({ context: { kind: 'entry', refId: cups[1]!.id }, method: 'percolation', doseGross: 29.0, doseTare: 12.5, beverageGross: 660.6, beverageTare: 412.6, notes: '', brewedAt: at(1, 11) }, [1.28, 1.27, 1.29], 'tds', pen, null),
       ],
     },
+    // The judges measure the pours; then the head judge signs Heat 1 off from the phone.
+    { userId: people.member, mutations: competition.measured },
+    { userId: people.lead, mutations: competition.signedOff },
     {
       userId: people.lead,
       mutations: [

@@ -46,6 +46,7 @@ export async function startFakeSmtp(options: { port: number, mailDir: string, ho
             subject: parsed.subject ?? '',
             text: parsed.text ?? '',
             html: typeof parsed.html === 'string' ? parsed.html : undefined,
+            attachments: parsed.attachments.map(file => ({ filename: file.filename ?? '', contentType: file.contentType, size: file.size, content: file.content.toString('base64') })),
           }, raw))
           .then(() => callback(), callback)
       })

@@ -4,11 +4,19 @@ import type { MailSettings } from '../env'
 import nodemailer from 'nodemailer'
 import { ConfigError } from '../env'
 
+/** A file sent with a message (a round's results as CSV). */
+export interface MailAttachment {
+  filename: string
+  content: string | Buffer
+  contentType: string
+}
+
 export interface OutgoingMail {
   to: string
   subject: string
   text: string
   html?: string
+  attachments?: MailAttachment[]
 }
 
 export interface Mailer {

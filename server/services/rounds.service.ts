@@ -5,8 +5,8 @@ import { can } from '../../shared/records/rules'
 import { retryOnContention } from '../db/retry'
 import { records, teamSyncState } from '../db/schema'
 import { HttpError, notFoundError } from '../http-error'
+import { freezeRound } from '../sync/judging'
 import { lockCounter, RecordBatch, toRecord } from '../sync/store'
-import { audit } from './audit.service'
 
 /** Competition rounds: what the sync layer does not do on its own (signing one off). */
 export function createRoundsService(deps: { db: Db, teams: TeamsService }) {
@@ -30,14 +30,10 @@ export function createRoundsService(deps: { db: Db, teams: TeamsService }) {
           throw notFoundError('round')
         if (round.derived)
           return toRecord(round)
-        const rev = lastRev + 1
-        const at = new Date()
-        const derived = { signedOffAt: at.toISOString(), signedOffBy: actor.userId }
-        const signed = batch.note({ ...round, derived, rev, updatedAt: at }, { rev, at: at.toISOString(), by: actor.userId, op: 'edit', changes: { signedOffAt: { from: null, to: derived.signedOffAt } } })
-        batch.write(signed)
+        let rev = lastRev
+        const signed = await freezeRound(batch, round, { userId: actor.userId, ip: actor.ip, via: 'route' }, () => ++rev)
         await batch.flush()
         await tx.update(teamSyncState).set({ lastRev: rev }).where(eq(teamSyncState.teamId, teamId))
-        await audit(tx, { action: 'round.signed_off', actorId: actor.userId, teamId, subjectId: roundId, ip: actor.ip })
         return toRecord(signed)
       }, { isolationLevel: 'read committed' }))
     },

@@ -12,7 +12,8 @@ import { HttpError, notFoundError } from '../http-error'
 import { keepAnswers, storedAnswers } from '../sync/answers'
 import { applyMutation, describeIssue } from '../sync/apply'
 import { rederive } from '../sync/derive'
-import { lockCounter, RecordBatch, toRecord } from '../sync/store'
+import { lockCounter, RecordBatch } from '../sync/store'
+import { readerView, sealHistory, sealRecord, visibleRecords } from '../sync/visibility'
 
 export interface SyncHooks {
   /** Runs inside the push transaction just before it commits (tests hold a commit back with it). */
@@ -98,6 +99,29 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
     }, { isolationLevel: 'read committed' })
   }
 
+  /**
+   * The server's copies in conflict answers, as this sender may see them now: sealed at the moment
+   * of answering, so a stored answer repeated later (or to someone whose role changed) is too.
+   */
+  async function sealAnswers(items: Item[], roles: Map<string, Role | null>, results: MutationResult[]): Promise<MutationResult[]> {
+    const byMutation = new Map(items.flatMap(item => (item.ok ? [[item.m.mutationId, item.m] as const] : [])))
+    const copies = results.flatMap((result, index) => {
+      const m = byMutation.get(result.mutationId)
+      const role = m && roles.get(m.teamId)
+      return result.server && m && role ? [{ index, role, entity: m.entity, data: result.server }] : []
+    })
+    const sealed = [...results]
+    for (const role of new Set(copies.map(copy => copy.role))) {
+      const mine = copies.filter(copy => copy.role === role)
+      const isSealed = await readerView(db, role, mine)
+      mine.forEach((copy, i) => {
+        if (isSealed(i))
+          sealed[copy.index] = { ...sealed[copy.index]!, server: sealRecord(copy.entity, copy.data) }
+      })
+    }
+    return sealed
+  }
+
   return {
     async push(userId: string, body: unknown): Promise<{ results: MutationResult[] }> {
       const count = isObject(body) && Array.isArray(body.mutations) ? body.mutations.length : 0
@@ -109,7 +133,8 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
         return parsed.success ? { index, raw, ok: true, m: parsed.data } : { index, raw, ok: false, reason: describeIssue(parsed.error) }
       })
       const roles = await rolesOf(userId, items)
-      return { results: await retryOnContention(() => pushOnce(userId, clientId, items, roles)) }
+      const results = await retryOnContention(() => pushOnce(userId, clientId, items, roles))
+      return { results: await sealAnswers(items, roles, results) }
     },
 
     /**
@@ -118,11 +143,12 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
      */
     async pull(userId: string, query: unknown): Promise<{ changes: Change[], cursor: number, hasMore: boolean }> {
       const { teamId, since, limit } = PullQuerySchema.parse(query)
-      await deps.teams.roleIn(teamId, userId)
+      const role = await deps.teams.roleIn(teamId, userId)
       const rows = await db.select().from(records).where(and(eq(records.teamId, teamId), gt(records.rev, since))).orderBy(asc(records.rev)).limit(limit + 1)
       const page = rows.slice(0, limit)
+      const sent = await visibleRecords(db, role, page)
       return {
-        changes: page.map(row => ({ entity: row.entity, id: row.id, rev: row.rev, op: row.deletedAt ? 'delete' : 'put', data: toRecord(row) })),
+        changes: page.map((row, index) => ({ entity: row.entity, id: row.id, rev: row.rev, op: row.deletedAt ? 'delete' : 'put', data: sent[index]! })),
         cursor: page.at(-1)?.rev ?? since,
         hasMore: rows.length > limit,
       }
@@ -130,12 +156,14 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
 
     /** Every history entry of one record, oldest first (phones carry only the latest). */
     async history(userId: string, teamId: string, recordId: string): Promise<HistoryEntry[]> {
-      await deps.teams.roleIn(teamId, userId)
-      const [record] = await db.select({ id: records.id }).from(records).where(and(eq(records.id, recordId), eq(records.teamId, teamId)))
+      const role = await deps.teams.roleIn(teamId, userId)
+      const [record] = await db.select({ id: records.id, entity: records.entity, data: records.data }).from(records).where(and(eq(records.id, recordId), eq(records.teamId, teamId)))
       if (!record)
         throw notFoundError('record')
       const rows = await db.select({ entry: recordHistory.entry }).from(recordHistory).where(eq(recordHistory.recordId, recordId)).orderBy(asc(recordHistory.rev))
-      return rows.map(row => row.entry)
+      const history = rows.map(row => row.entry)
+      const sealed = await readerView(db, role, [record])
+      return sealed(0) ? sealHistory(record.entity, history) : history
     },
   }
 }

@@ -10,7 +10,8 @@ import { recipeRefusal } from '../../shared/records/recipe-rules'
 import { definitionOf } from '../../shared/records/registry'
 import { frozenMessage, identityRefusal, refusalOf, roundIdOf } from '../../shared/records/rules'
 import { entityDataSchemas } from '../../shared/schemas/entities'
-import { deriveCalibration } from './derive'
+import { deriveCalibration, rederive } from './derive'
+import { codeClash, freezeRound } from './judging'
 import { toRecord } from './store'
 
 const same = (a: unknown, b: unknown): boolean => JSON.stringify(a ?? null) === JSON.stringify(b ?? null)
@@ -117,6 +118,8 @@ export async function applyMutation(ctx: ApplyContext, m: Mutation): Promise<Mut
     if (!parent || parent.teamId !== m.teamId || parent.deletedAt)
       return rejected(`The ${definitionOf(link.entity).noun.one} this record belongs to is not on the server.`)
   }
+  if (m.entity === 'signoff' && !current)
+    return signOff(ctx, m, data as EntityData<'signoff'>)
   const inTeam: RecordLookup = async (entity, id) => {
     const row = await batch.find(entity, id)
     return row && row.teamId === m.teamId && !row.deletedAt ? row : undefined
@@ -126,6 +129,12 @@ export async function applyMutation(ctx: ApplyContext, m: Mutation): Promise<Mut
     return rejected(inconsistent)
   if (await frozen(batch, m.entity, m.id, fields, ...(current ? [current.data] : [])))
     return rejected(frozenMessage)
+  if (m.entity === 'entry' && (changed.includes('code') || changed.includes('roundId'))) {
+    // The entity is an entry, so its data passed the entry schema.
+    const clash = await codeClash(batch, m.id, data as EntityData<'entry'>)
+    if (clash)
+      return rejected(clash)
+  }
 
   let derived = current?.derived ?? null
   if (m.entity === 'calibration') {
@@ -152,4 +161,26 @@ export async function applyMutation(ctx: ApplyContext, m: Mutation): Promise<Mut
   else if (m.entity === 'reading')
     ctx.touched.set(String(fields.brewId), { rev: null, by: actor.userId, ...ctx.touched.get(String(fields.brewId)) })
   return applied(rev)
+}
+
+/**
+ * A sign-off queued on a phone: kept as a record, then the round freezes as the sign-off route
+ * freezes it. One that arrives for a round already signed off (from another phone, or the route)
+ * is answered applied and changes nothing.
+ */
+async function signOff(ctx: ApplyContext, m: Mutation, data: EntityData<'signoff'>): Promise<MutationResult> {
+  const { batch, actor } = ctx
+  const round = (await batch.find('round', data.roundId))!
+  if (round.derived)
+    return { mutationId: m.mutationId, status: 'applied', rev: round.rev }
+  // Pours and readings that came before it in this push are worked out first, so nothing of the
+  // round gets a rev after the round's own.
+  await rederive(batch, ctx.touched, ctx.nextRev)
+  ctx.touched.clear()
+  const rev = ctx.nextRev()
+  const now = new Date()
+  const fieldRevs = Object.fromEntries(Object.keys(data).map(key => [key, rev]))
+  batch.write({ id: m.id, entity: 'signoff', teamId: m.teamId, createdBy: actor.userId, createdAt: now, updatedAt: now, deletedAt: null, history: null, historyCount: 0, data, derived: null, fieldRevs, rev, parentId: round.id })
+  await freezeRound(batch, round, { userId: actor.userId, via: 'phone' }, ctx.nextRev)
+  return { mutationId: m.mutationId, status: 'applied', rev }
 }

@@ -13,6 +13,14 @@ export const can = {
   invite: (role: Role, invitedRole: Role) => role === 'owner' || (role === 'lead' && (invitedRole === 'member' || invitedRole === 'viewer')),
   seeInvitations: (role: Role) => role === 'owner' || role === 'lead',
   signOff: (role: Role) => role === 'owner' || role === 'lead',
+  /**
+   * Blind judging: a cup's competitor is known to the head judge (a lead or an owner) and to everyone
+   * else only once the round is signed off. The server leaves the name out of all it sends otherwise.
+   */
+  seeCompetitors: (role: Role, signedOff: boolean) => role === 'owner' || role === 'lead' || signedOff,
+  /** A round's results: the head judge any time, the whole team once it is signed off. */
+  readResults: (role: Role, signedOff: boolean) => role === 'owner' || role === 'lead' || signedOff,
+  sendResults: (role: Role) => role === 'owner' || role === 'lead',
   /** Photos and other files go with the records a person may write: not for viewers. */
   uploadFiles: (role: Role) => role !== 'viewer',
 }
@@ -75,14 +83,14 @@ export const frozenMessage = 'This round is signed off: its results can no longe
 export type RecordLookup = <E extends EntityName>(entity: E, id: string) => Promise<{ data: EntityData<E> } | undefined>
 
 /**
- * The round a record sits in: the round itself, an entry's round, a brew's through the entry it
+ * The round a record sits in: the round itself, an entry's or a sign-off's round, a brew's through the entry it
  * was measured for, a reading's through its brew. A signed-off round freezes all of them, so a
  * change is checked against the round of the record before and after it (a move out is a change).
  */
 export async function roundIdOf(entity: EntityName, id: string, data: Record<string, unknown>, lookup: RecordLookup): Promise<string | null> {
   if (entity === 'round')
     return id
-  if (entity === 'entry')
+  if (entity === 'entry' || entity === 'signoff')
     return typeof data.roundId === 'string' ? data.roundId : null
   let context = entity === 'brew' ? data.context : undefined
   if (entity === 'reading' && typeof data.brewId === 'string')

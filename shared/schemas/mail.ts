@@ -9,6 +9,8 @@ export const StoredMailSchema = z.object({
   subject: z.string(),
   text: z.string(),
   html: z.string().optional(),
+  /** Files sent with it; the content as base64, as it travelled. */
+  attachments: z.array(z.object({ filename: z.string(), contentType: z.string(), size: z.number(), content: z.string() })).default([]),
 })
 
 export type StoredMail = z.infer<typeof StoredMailSchema>

@@ -70,6 +70,8 @@ export const derivedSchemas = {
   recipe: z.null(),
   zone: z.null(),
   zoneDefault: z.null(),
+  signoff: z.null(),
+  zeroCheck: z.null(),
   cuppingTable: z.null(),
   scoreSheet: z.null(),
   score: z.null(),

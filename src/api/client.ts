@@ -72,6 +72,17 @@ export async function api<T extends z.ZodType>(method: string, path: string, opt
   throw new ApiError(response.status, 'http_error', `The team server answered with status ${response.status}.`)
 }
 
+/** Calls the API for a text answer (a CSV file); a refusal throws ApiError as api() does. */
+export async function apiText(path: string): Promise<string> {
+  let response = await send('GET', path, undefined)
+  if (response.status === 401 && (await refreshSession()))
+    response = await send('GET', path, undefined)
+  if (response.ok)
+    return response.text()
+  const error = ApiErrorBodySchema.safeParse(await response.json().catch(() => undefined))
+  throw error.success ? new ApiError(response.status, error.data.error.code, error.data.error.message) : new ApiError(response.status, 'http_error', `The team server answered with status ${response.status}.`)
+}
+
 /**
  * Trades the refresh cookie for a new access token, once at a time however many calls ask.
  * Resolves null when the server says the session is over; throws ApiError `network` when offline.

@@ -77,17 +77,21 @@ function ownZone(context: BrewContext, found: ContextRecords): JudgedZone | unde
 }
 
 /**
- * The zone a brew's verdict belongs to: its context's (an event's for a cup, the cupping zone for a
- * lot's bowl, a recipe's for a recipe brew, a dial-in's for a blank attempt), else the team's
- * default for its family. The same on every phone, list, chart and export, whatever the phone shows
+ * The zone a brew's verdict belongs to: its context's (a cup's round, else its event, for a cup;
+ * the cupping zone for a lot's bowl; a recipe's for a recipe brew; a dial-in's for a blank
+ * attempt), else the team's default for its family. The same on every phone, list, chart and export, whatever the phone shows
  * on its own chart. A zone of the wrong family (a drip zone for an espresso) is never used.
  */
 export function judgedZone(context: BrewContext, method: string, found: ContextRecords): JudgedZone {
   const family = methodFamily(method)
   if (context.kind === 'entry' && context.refId) {
+    // A cup is judged by its round's zone, which is the event's unless the round sets its own.
     const entry = found.entries.get(context.refId)
     const round = entry && found.rounds.get(entry.roundId)
     const event = round && found.events.get(round.eventId)
+    const own = round?.zoneId ? found.zones(round.zoneId) ?? findZonePreset(round.zoneId) : undefined
+    if (own && zoneFamily(own) === family)
+      return { zone: own, source: 'the round\'s zone' }
     const zone = event && (found.zones(event.zoneId) ?? findZonePreset(event.zoneId))
     if (zone && zoneFamily(zone) === family)
       return { zone, source: 'the event\'s zone' }

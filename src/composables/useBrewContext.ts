@@ -24,6 +24,8 @@ export interface BrewContextView {
   zoneId: string | null
   /** An entry in a signed-off round takes no more brews. */
   closed: boolean
+  /** Where the context's own screen is (a cup's round board), to go back to it. */
+  link?: { to: string, text: string }
   /** The method a recipe is the crew's house recipe of. */
   house?: BrewMethod
 }
@@ -94,12 +96,17 @@ async function describeRecord(found: ContextRecord): Promise<BrewContextView> {
   const entry = found.record
   const round = await db.rounds.get(entry.roundId)
   const event = round ? await db.events.get(round.eventId) : undefined
+  // How far the cup is, counted among its brews on this phone.
+  const pours = await db.brews.where('teamId').equals(entry.teamId).filter(brew => !brew.deletedAt && brew.context.kind === 'entry' && brew.context.refId === entry.id).count()
+  const signing = round ? await db.signoffs.where('roundId').equals(round.id).filter(signoff => signoff.sync.state === 'pending').count() : 0
+  const pourText = round ? `${pours} of ${round.poursPerCup} pours measured, ${round.readingsPerPour} readings each` : ''
   return {
     ...base,
     title: `Cup ${entry.code}${round ? ` · ${round.name}` : ''}`,
-    detail: event?.name ?? '',
-    zoneId: event?.zoneId ?? null,
-    closed: Boolean(round?.derived),
+    detail: [event?.name, pourText].filter(Boolean).join(' · '),
+    zoneId: round?.zoneId ?? event?.zoneId ?? null,
+    closed: Boolean(round?.derived) || signing > 0,
+    link: round ? { to: `/field/rounds/${round.id}`, text: 'Round board' } : undefined,
   }
 }
 

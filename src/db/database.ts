@@ -109,6 +109,8 @@ export const tableOf = {
   recipe: 'recipes',
   zone: 'zones',
   zoneDefault: 'zoneDefaults',
+  signoff: 'signoffs',
+  zeroCheck: 'zeroChecks',
   cuppingTable: 'cuppingTables',
   scoreSheet: 'scoreSheets',
   score: 'scores',
@@ -136,6 +138,8 @@ export class LixiviaDatabase extends Dexie {
   recipes!: RecordTables['recipe']
   zones!: RecordTables['zone']
   zoneDefaults!: RecordTables['zoneDefault']
+  signoffs!: RecordTables['signoff']
+  zeroChecks!: RecordTables['zeroCheck']
   recipeVersions!: RecordTables['recipeVersion']
   houseRecipes!: RecordTables['houseRecipe']
   dialIns!: RecordTables['dialIn']
@@ -172,6 +176,8 @@ export class LixiviaDatabase extends Dexie {
     this.version(4).stores({ uploads: 'id, teamId, state, createdAt', zoneDefaults: 'id, teamId, sync.state' }).upgrade(async (tx) => {
       await tx.table('meta').where('key').startsWith('cursor:').delete()
     })
+    // Competition judging: a round's sign-off queued on the phone, and each instrument's daily zero check.
+    this.version(5).stores({ signoffs: 'id, teamId, roundId, sync.state', zeroChecks: 'id, teamId, instrumentId, sync.state' })
     // Buying trips at origin: cupping tables, score sheets and scores, photos and the photos fetched from teammates.
     this.version(6).stores({
       cuppingTables: 'id, teamId, tripId, sync.state',
@@ -200,6 +206,8 @@ export class LixiviaDatabase extends Dexie {
       recipe: this.recipes,
       zone: this.zones,
       zoneDefault: this.zoneDefaults,
+      signoff: this.signoffs,
+      zeroCheck: this.zeroChecks,
       cuppingTable: this.cuppingTables,
       scoreSheet: this.scoreSheets,
       score: this.scores,

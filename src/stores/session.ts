@@ -2,6 +2,7 @@ import type { Actor } from '../../shared/records/rules'
 import type { Membership, Role, User } from '../../shared/schemas/auth'
 import { defineStore } from 'pinia'
 import { computed, ref, toRaw } from 'vue'
+import { can } from '../../shared/records/rules'
 import { signIn as apiSignIn, signOut as apiSignOut, signUp as apiSignUp, fetchMe } from '../api/accounts'
 import { ApiError, refreshSession, whenSessionEnds } from '../api/client'
 import { db } from '../db/database'
@@ -12,6 +13,32 @@ import { db } from '../db/database'
  * the phone is lost). signed-out: nobody.
  */
 export type SessionStatus = 'starting' | 'signed-in' | 'offline' | 'expired' | 'signed-out'
+
+/**
+ * What the server sends depends on who reads it and in which role (a cup's competitor is sealed
+ * for members and viewers until sign-off): when the person or the role on a team changes, the
+ * team is pulled again from the start, so the records on the phone are what this reader may hold.
+ */
+async function pullAgainIfReaderChanged(userId: string, memberships: Membership[]): Promise<void> {
+  for (const membership of memberships) {
+    const key = `pulledAs:${membership.teamId}`
+    const reader = `${userId}:${membership.role}`
+    if ((await db.meta.get(key))?.value === reader)
+      continue
+    await db.meta.delete(`cursor:${membership.teamId}`)
+    await db.meta.put({ key, value: reader })
+    if (!can.seeCompetitors(membership.role, false))
+      await forgetCompetitors(membership.teamId)
+  }
+}
+
+/** Blanks the competitors of cups in rounds not signed off, kept here from an earlier reader. */
+async function forgetCompetitors(teamId: string): Promise<void> {
+  await db.transaction('rw', db.entries, db.rounds, async () => {
+    const open = new Set((await db.rounds.where('teamId').equals(teamId).toArray()).filter(round => !round.derived).map(round => round.id))
+    await db.entries.where('teamId').equals(teamId).filter(entry => open.has(entry.roundId) && entry.contestant !== '').modify({ contestant: '' })
+  })
+}
 
 export const useSessionStore = defineStore('session', () => {
   const status = ref<SessionStatus>('starting')
@@ -30,6 +57,7 @@ export const useSessionStore = defineStore('session', () => {
     memberships.value = next.memberships
     if (!next.memberships.some(m => m.teamId === activeTeamId.value))
       activeTeamId.value = next.memberships[0]?.teamId ?? null
+    await pullAgainIfReaderChanged(next.user.id, next.memberships)
     // IndexedDB cannot store Vue proxies: write plain copies.
     await db.identity.put({ key: 'current', user: toRaw(user.value), memberships: memberships.value.map(m => ({ ...toRaw(m) })), activeTeamId: activeTeamId.value, cachedAt: new Date().toISOString() })
   }

@@ -64,6 +64,7 @@ export function createSyncEngine(options: SyncEngineOptions) {
   const schedule = options.schedule ?? wait
   const isOnline = options.isOnline ?? (() => true)
   let running: Promise<void> | null = null
+  let queued: Promise<void> | null = null
   let failures = 0
   /** Records of this run's pulls that this version could not read. */
   let unreadable = 0
@@ -227,9 +228,20 @@ export function createSyncEngine(options: SyncEngineOptions) {
     }
   }
 
-  /** Pushes everything queued, then pulls every team; one run at a time. */
+  /**
+   * Pushes everything queued, then pulls every team; one run at a time. A call during a run (a cup
+   * saved while the last one went out) gets one more run after it, so nothing saved waits for the
+   * next timer; the promise settles when that run is done.
+   */
   function syncNow(): Promise<void> {
-    running ??= run().finally(() => {
+    if (running) {
+      queued ??= running.catch(() => undefined).then(() => {
+        queued = null
+        return syncNow()
+      })
+      return queued
+    }
+    running = run().finally(() => {
       running = null
     })
     return running

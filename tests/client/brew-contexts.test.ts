@@ -37,6 +37,15 @@ describe('judgedZone', () => {
     expect(judgedZone({ kind: 'entry', refId: cup.id }, 'percolation', records())).toEqual({ zone: findZonePreset('european-drip'), source: 'the event\'s zone' })
   })
 
+  it('judges a cup against its round\'s own zone when the round sets one, on every phone', () => {
+    const own = localRecord('round', { id: 'round-2', eventId: event.id, name: 'Final', position: 3, zoneId: houseZone.id })
+    const finalist = localRecord('entry', { id: 'cup-2', roundId: own.id, code: 'KX4M' })
+    const found = { ...records(), rounds: map(round, own), entries: map(cup, finalist) }
+    expect(judgedZone({ kind: 'entry', refId: finalist.id }, 'percolation', found)).toEqual({ zone: houseZone, source: 'the round\'s zone' })
+    // The other round of the same event keeps the event's zone.
+    expect(judgedZone({ kind: 'entry', refId: cup.id }, 'percolation', found).zone.id).toBe('european-drip')
+  })
+
   it('judges a quick brew against the team\'s latest default for its family, else the preset', () => {
     expect(judgedZone({ kind: 'quick', refId: null }, 'percolation', records()).zone.id).toBe('us-drip')
     const defaults = [localRecord('zoneDefault', { family: 'filter', zoneId: 'nordic-drip' }), localRecord('zoneDefault', { family: 'filter', zoneId: houseZone.id })]

@@ -117,6 +117,28 @@ describe('createSyncEngine', () => {
     expect(seen.at(-1)).toMatchObject({ state: 'idle', pending: 0, attention: 0 })
   })
 
+  it('sends a record saved while a pull is on its way in a run right after, without waiting for a timer', async () => {
+    const server = fakeServer()
+    const { engine } = engineWith(server)
+    const first = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Cup scale') })
+    const pull = server.transport.pull
+    let second = ''
+    let followUp: Promise<void> = Promise.resolve()
+    // The second cup is saved (and syncNow called) after the push, while the pull is in flight.
+    server.transport.pull = async (...args) => {
+      if (!second) {
+        second = await saveRecord(database, 'instrument', { teamId, userId, data: gauge('Cup scale 2') })
+        followUp = engine.syncNow()
+      }
+      return pull(...args)
+    }
+    await engine.syncNow()
+    await followUp
+    expect(server.records.has(first)).toBe(true)
+    expect(server.records.has(second)).toBe(true)
+    expect(await database.outbox.count()).toBe(0)
+  })
+
   it('bases an edit queued behind an in-flight create on the rev the create got', async () => {
     const server = fakeServer()
     const { engine } = engineWith(server)

@@ -65,7 +65,7 @@ export async function signIn(page: Page, account: { email: string, password: str
 }
 
 /** Reads the newest message the local SMTP fake caught for an address, through the dev route. */
-export async function newestMailTo(page: Page, address: string): Promise<{ subject: string, text: string }> {
+export async function newestMailTo(page: Page, address: string): Promise<{ subject: string, text: string, attachments?: { filename: string, contentType: string, content: string }[] }> {
   for (let attempt = 0; attempt < 50; attempt++) {
     const list = await (await page.request.get('/api/v1/dev/mail')).json() as { mails: { id: string, to: string[] }[] }
     const found = list.mails.find(mail => mail.to.includes(address))

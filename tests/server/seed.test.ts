@@ -10,6 +10,7 @@ import { demoAccounts, demoPassword, seedDemo } from '../../server/db/seed'
 import { verifyPassword } from '../../server/services/passwords'
 import { createDiskStorage } from '../../server/storage/disk'
 import { fileKey } from '../../server/storage/files'
+import { isBlindCode } from '../../shared/records/blind-codes'
 import { createTestDatabase } from './helpers'
 
 let database: TestDatabase
@@ -31,16 +32,25 @@ describe('seedDemo', () => {
 
   it('writes the demo records through the sync push, so the server derived every brew\'s result', async () => {
     const stored = await database.db.select().from(records).where(eq(records.entity, 'brew'))
-    // The week's brews, twenty cupping bowls (four lots, five bowls each) and five dial-in attempts.
-    expect(stored).toHaveLength(31)
+    // The week's brews, twenty cupping bowls (four lots, five bowls each), five dial-in attempts and
+    // nine pours of competition cups.
+    expect(stored).toHaveLength(38)
     for (const brew of stored) {
       expect(brew.derived!.tdsPercent, JSON.stringify(brew.data)).toEqual(expect.any(Number))
       expect(brew.derived!.yieldPercent).toEqual(expect.any(Number))
     }
     const [row] = await database.db.select({ count: sql<number>`count(*)` }).from(records).where(eq(records.entity, 'reading'))
-    expect(Number(row!.count)).toBe(72)
+    expect(Number(row!.count)).toBe(84)
   })
 
+  it('writes a competition with one heat signed off and one under way, its cups under random blind codes', async () => {
+    const rounds = await database.db.select().from(records).where(eq(records.entity, 'round'))
+    expect(rounds.map(round => [round.data.name, Boolean(round.derived)]).sort()).toEqual([['Heat 1', true], ['Heat 2', false]])
+    const cups = await database.db.select().from(records).where(eq(records.entity, 'entry'))
+    expect(cups).toHaveLength(7)
+    expect(new Set(cups.map(cup => cup.data.code)).size).toBe(7)
+    expect(cups.every(cup => isBlindCode(String(cup.data.code)) && String(cup.data.contestant).length > 0)).toBe(true)
+  })
   it('writes a buying trip with four lots, a cupping table with scores, and two photos whose pictures are stored', async () => {
     const count = async (entity: EntityName) => (await database.db.select().from(records).where(eq(records.entity, entity))).length
     expect(await count('lot')).toBe(4)

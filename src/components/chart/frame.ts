@@ -2,7 +2,7 @@ import type { Zone } from '../../../shared/brewing'
 
 /**
  * A brew on the chart; `label` names it (its context and date) in the tooltip; `tag` is a short
- * mark drawn beside it (a dial-in attempt's number).
+ * mark drawn beside it (a cup's blind code, a dial-in attempt's number).
  */
 export interface ChartPoint { id: string, tdsPercent: number, yieldPercent: number, current?: boolean, label?: string, tag?: string }
 
