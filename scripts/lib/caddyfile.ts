@@ -65,19 +65,29 @@ function globalOptions(site: ProxySite): string[] {
   return lines
 }
 
+/**
+ * Caddy lets an idle connection to the app go after 4 s, before Node closes it at 5 s (its
+ * keep-alive timeout): otherwise Caddy may send a request down a connection Node is closing (a 502).
+ */
+const transport = (indent: string): string[] => [`${indent}transport http {`, `${indent}\tkeepalive 4s`, `${indent}}`]
+
 function proxy(site: ProxySite, indent: string): string[] {
   if (site.upstreams.length === 1)
-    return [`${indent}reverse_proxy ${site.upstreams[0]}`]
+    return [`${indent}reverse_proxy ${site.upstreams[0]} {`, ...transport(`${indent}\t`), `${indent}}`]
   // Several instances of the stateless API: each request to the next one, skipping one the health
-  // route finds down; a request that could not reach an instance goes to another. One that met an
-  // instance as it stopped gets a 502: the phone sends its push again (the same mutation ids, so
-  // nothing is applied twice). Debian's Caddy 2.6 cannot replay a request body, so it is not asked to.
+  // route finds down (checked every 2 s); a request that could not reach an instance goes to
+  // another. No passive checks: Caddy 2.6 would count its own failed retry of a request body
+  // against the healthy instance. One that met an instance as it stopped gets a 502: the phone sends its push
+  // again (the same mutation ids, so nothing is applied twice). Debian's Caddy 2.6 cannot replay a
+  // request body itself, so it is not asked to.
   return [
     `${indent}reverse_proxy ${site.upstreams.join(' ')} {`,
     `${indent}\tlb_policy round_robin`,
     `${indent}\tlb_try_duration 5s`,
+    `${indent}\tlb_try_interval 100ms`,
     `${indent}\thealth_uri /api/v1/health`,
-    `${indent}\thealth_interval 5s`,
+    `${indent}\thealth_interval 2s`,
+    ...transport(`${indent}\t`),
     `${indent}}`,
   ]
 }

@@ -68,9 +68,9 @@ async function pushMany(phones: { token: string, teamId: string, clientId: strin
       const body = { clientId: phone.clientId, mutations }
       let answer = await api<{ results: { status: string }[] }>({ method: 'POST', path: '/api/v1/sync/push', token: phone.token, body })
       // As the phone's outbox does: a push that met an instance going away is sent again, unchanged.
-      for (let attempt = 0; attempt < 5 && answer.status >= 502; attempt++) {
+      for (let attempt = 0; attempt < 10 && answer.status >= 502; attempt++) {
         retried += 1
-        await new Promise(resolve => setTimeout(resolve, 300))
+        await new Promise(resolve => setTimeout(resolve, 500))
         answer = await api({ method: 'POST', path: '/api/v1/sync/push', token: phone.token, body })
       }
       expect(answer.status).toBe(200)
