@@ -228,11 +228,8 @@ export function createSyncEngine(options: SyncEngineOptions) {
     }
   }
 
-  /**
-   * Pushes everything queued, then pulls every team; one run at a time. A call during a run (a cup
-   * saved while the last one went out) gets one more run after it, so nothing saved waits for the
-   * next timer; the promise settles when that run is done.
-   */
+  // Pushes everything queued, then pulls every team; one run at a time, and one more after it for a
+  // call during a run (a cup saved while the last went out), so nothing saved waits for a timer.
   function syncNow(): Promise<void> {
     if (running) {
       queued ??= running.catch(() => undefined).then(() => {

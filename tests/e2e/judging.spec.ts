@@ -20,6 +20,8 @@ let judgeContext: BrowserContext
 let judge: Page
 let errors: string[]
 let codes: string[] = []
+/** The competitor behind each code, as the head judge's set-up lists them (in the order of the codes). */
+const competitorOf = new Map<string, string>()
 
 async function shot(page: Page, name: string, checkAccess = true): Promise<void> {
   await screenshot(page, `judging-${name}`)
@@ -77,8 +79,10 @@ describe('a competition heat, end to end', () => {
       await onScreen(head, 'add-cup').click()
       await onScreen(head, 'cup-setup').getByText(name).waitFor()
     }
-    codes = await onScreen(head, 'cup-setup').locator('h3.code').allInnerTexts()
-    codes = codes.map(code => code.trim())
+    for (const row of await onScreen(head, 'cup-setup').locator('[data-test="cup-setup-row"]').all())
+      competitorOf.set((await row.locator('h3.code').innerText()).trim(), (await row.locator('p').innerText()).trim())
+    codes = [...competitorOf.keys()]
+    expect([...competitorOf.values()].sort()).toEqual([...competitors].sort())
     expect(codes).toHaveLength(3)
     expect(new Set(codes).size).toBe(3)
     expect(codes.every(isBlindCode)).toBe(true)
@@ -189,7 +193,7 @@ describe('a competition heat, end to end', () => {
     const [download] = await Promise.all([head.waitForEvent('download'), onScreen(head, 'results-csv').click()])
     const { data } = Papa.parse<Record<string, string>>(readFileSync((await download.path())!, 'utf8'), { header: true, skipEmptyLines: true })
     expect(data).toHaveLength(12)
-    expect(data[0]).toMatchObject({ code: codes[0], competitor: competitors[0], pour: '1', reading: '1', tds_percent: '1.30', extraction_percent: '20.8', instrument: pen })
+    expect(data[0]).toMatchObject({ code: codes[0], competitor: competitorOf.get(codes[0]), pour: '1', reading: '1', tds_percent: '1.30', extraction_percent: '20.8', instrument: pen })
     expect(data.filter(row => row.flag).map(row => row.code)).toEqual(Array.from({ length: 4 }, () => codes[2]))
   })
 
