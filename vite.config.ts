@@ -67,8 +67,8 @@ export default defineConfig({
         // Fonts and icons must be precached too, or the app opens offline without them.
         globPatterns: ['**/*.{js,css,html,woff2,svg,png,ico,webmanifest}'],
         navigateFallback: '/index.html',
-        // The API is never answered with the app shell.
-        navigateFallbackDenylist: [/^\/api\//],
+        // The API and the server's phone set-up page are never answered with the app shell.
+        navigateFallbackDenylist: [/^\/api\//, /^\/phone(?:\/|$)/],
         cleanupOutdatedCaches: true,
       },
     }),

@@ -55,6 +55,15 @@ export interface AppDeps {
   files: FileStorage
   /** The built client (`dist/`); when given, the app is served beside the API. */
   staticDir?: string
+  /**
+   * The peers whose X-Forwarded-For and X-Forwarded-Proto are believed (the reverse proxy's
+   * address); none by default, so a client cannot choose the address its rate limits count.
+   */
+  trustProxy?: string[] | false
+  /** Marks the refresh cookie Secure whatever the request looks like (production, behind HTTPS). */
+  secureCookies?: boolean
+  /** Extra pages served before the client (the phone set-up page of `npm run serve`). */
+  pages?: express.Router
 }
 
 /**
@@ -93,7 +102,7 @@ function serveClient(app: Express, dir: string): void {
 export function createApp(deps: AppDeps): Express {
   const app = express()
   app.disable('x-powered-by')
-  app.set('trust proxy', 'loopback')
+  app.set('trust proxy', deps.trustProxy ?? false)
 
   app.use(helmet({
     contentSecurityPolicy: {
@@ -136,7 +145,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(healthRoutes({ pool: deps.database.pool, version: deps.version }))
   if (deps.devMailbox)
     api.use(devMailRoutes(deps.devMailbox))
-  api.use(authRoutes(auth, { register: limiter(limits.register), login: limiter(limits.login), reset: limiter(limits.reset) }))
+  api.use(authRoutes(auth, { register: limiter(limits.register), login: limiter(limits.login), reset: limiter(limits.reset) }, { secureCookies: deps.secureCookies ?? false }))
   // Signed-in routes; scoped by path so that an unknown route still answers 404, not 401.
   api.use(['/me', '/teams', '/invitations', '/sync'], requireAuth(tokens, auth))
   api.use(teamRoutes(teams, invitations))
@@ -147,6 +156,8 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api/v1', api)
   app.use('/api', apiNotFound)
 
+  if (deps.pages)
+    app.use(deps.pages)
   if (deps.staticDir)
     serveClient(app, deps.staticDir)
 

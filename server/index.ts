@@ -1,3 +1,4 @@
+import type { Router } from 'express'
 import type { Server } from 'node:http'
 import type { Env } from './env'
 import { once } from 'node:events'
@@ -8,15 +9,25 @@ import pkg from '../package.json' with { type: 'json' }
 import { createApp } from './app'
 import { createDatabase } from './db/client'
 import { runMigrations } from './db/migrate'
-import { ConfigError, parseEnv, servesDevMail } from './env'
+import { ConfigError, mailSettingsOf, parseEnv, servesDevMail } from './env'
 import { createLogger } from './logger'
 import { Mailbox } from './mail/mailbox'
 import { createMailer } from './mail/mailer'
-import { createDiskStorage } from './storage/disk'
+import { openFileStorage } from './storage/open'
 
 export interface RunningServer {
   url: string
   close: () => Promise<void>
+}
+
+export interface ServeOptions {
+  /**
+   * Reach the mail server (connect, TLS, sign-in) and the photo bucket before listening, so a
+   * wrong setting stops the start with a message naming it instead of failing a person later.
+   */
+  checkServices?: boolean
+  /** Extra pages (the phone set-up page) served before the client. */
+  pages?: Router
 }
 
 export const distDir = fileURLToPath(new URL('../dist', import.meta.url))
@@ -30,10 +41,21 @@ export class ListenError extends Error {
  * env → database → app → listen (the caller has applied the migrations). Returns a handle whose `close` drains open requests
  * and releases the pool and the mail transport.
  */
-export async function serve(env: Env): Promise<RunningServer> {
+export async function serve(env: Env, options: ServeOptions = {}): Promise<RunningServer> {
   const logger = createLogger(env.LOG_LEVEL)
+  const mailer = createMailer(mailSettingsOf(env))
+  const storage = openFileStorage(env)
+  if (options.checkServices) {
+    try {
+      await Promise.all([mailer.verify(), storage.check()])
+    }
+    catch (error) {
+      mailer.close()
+      storage.close()
+      throw error
+    }
+  }
   const database = createDatabase(env.DATABASE_URL)
-  const mailer = createMailer({ host: env.SMTP_HOST, port: env.SMTP_PORT, from: env.MAIL_FROM })
   const app = createApp({
     database,
     mailer,
@@ -43,8 +65,11 @@ export async function serve(env: Env): Promise<RunningServer> {
     jwtSecret: env.JWT_SECRET,
     publicUrl: env.PUBLIC_URL,
     devMailbox: servesDevMail(env) ? new Mailbox(path.join(env.DATA_DIR, 'mail')) : undefined,
-    files: createDiskStorage(path.join(env.DATA_DIR, 'uploads')),
+    files: storage.files,
     staticDir: existsSync(distDir) ? distDir : undefined,
+    trustProxy: env.TRUST_PROXY,
+    secureCookies: env.SECURE_COOKIES,
+    pages: options.pages,
   })
 
   const server: Server = app.listen(env.PORT, env.HOST)
@@ -54,6 +79,7 @@ export async function serve(env: Env): Promise<RunningServer> {
   catch (error) {
     await database.pool.end()
     mailer.close()
+    storage.close()
     const code = (error as NodeJS.ErrnoException).code
     if (code === 'EADDRINUSE')
       throw new ListenError(`Port ${env.PORT} on ${env.HOST} is already in use (PORT). Stop the program using it or set PORT to a free port.`)
@@ -71,6 +97,7 @@ export async function serve(env: Env): Promise<RunningServer> {
       clearTimeout(timer)
       await database.pool.end()
       mailer.close()
+      storage.close()
     },
   }
 }
@@ -81,7 +108,7 @@ async function main(): Promise<void> {
   try {
     const env = parseEnv()
     await runMigrations(env.DATABASE_URL)
-    running = await serve(env)
+    running = await serve(env, { checkServices: true })
   }
   catch (error) {
     if (error instanceof ConfigError || error instanceof ListenError) {

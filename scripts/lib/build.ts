@@ -25,16 +25,18 @@ export function viteBin(root: string): string {
 }
 
 /** Builds the client with Vite when `dist/` is missing or older than any of its sources. */
-export function ensureClientBuilt(root: string): void {
+/** `log` tells what happens; the build's own output goes to stderr when `quiet` (stdout holds JSON lines). */
+export function ensureClientBuilt(root: string, options: { log?: (line: string) => void, quiet?: boolean } = {}): void {
+  const log = options.log ?? ((line: string) => console.log(line))
   const built = path.join(root, 'dist', 'index.html')
   const builtAt = existsSync(built) ? statSync(built).mtimeMs : 0
   const changedAt = Math.max(...sources.map(entry => newestMtime(path.join(root, entry))))
   if (builtAt > changedAt)
     return
-  console.log(builtAt ? 'The client sources changed since the last build: building ...' : 'Building the client ...')
+  log(builtAt ? 'The client sources changed since the last build: building ...' : 'Building the client ...')
   // The client is always built for production: with NODE_ENV=development in the environment (as in
   // development or the browser tests) Vite would bundle Vue's development build, 40 KB gzip heavier.
-  const result = spawnSync(process.execPath, [viteBin(root), 'build', '--logLevel', 'warn'], { cwd: root, stdio: 'inherit', env: { ...process.env, NODE_ENV: 'production' } })
+  const result = spawnSync(process.execPath, [viteBin(root), 'build', '--logLevel', 'warn'], { cwd: root, stdio: options.quiet ? ['ignore', process.stderr, process.stderr] : 'inherit', env: { ...process.env, NODE_ENV: 'production' } })
   if (result.status !== 0)
     throw new SetupError('The client build failed (see above); fix it, or run `npm run build` to see the whole output.')
 }

@@ -18,6 +18,8 @@ export function limiter(limit: Limit): RequestHandler {
     ...limit,
     standardHeaders: 'draft-7',
     legacyHeaders: false,
+    // Whose X-Forwarded-For counts is decided on purpose (TRUST_PROXY): a forged one is ignored, not a fault.
+    validate: { xForwardedForHeader: false },
     handler: (_req, res) => {
       const body: ApiErrorBody = { error: { code: 'rate_limited', message: 'Too many attempts from this device. Wait a few minutes and try again.' } }
       res.status(429).json(body)

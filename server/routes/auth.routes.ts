@@ -8,20 +8,23 @@ import { refreshTtlMs } from '../services/auth.service'
 export const refreshCookieName = 'lixivia_refresh'
 export const refreshCookiePath = '/api/v1/auth'
 
-/** httpOnly, SameSite=Strict, only sent to the auth routes; Secure everywhere but loopback. */
-function cookieOptions(req: Request): CookieOptions {
-  return { httpOnly: true, sameSite: 'strict', path: refreshCookiePath, secure: req.secure || !isLoopback(req.hostname) }
-}
-
-function sendSession(req: Request, res: Response, session: Session, status: number): void {
-  res.cookie(refreshCookieName, session.refreshToken, { ...cookieOptions(req), maxAge: refreshTtlMs })
-  res.status(status).json({ user: session.user, accessToken: session.accessToken })
+/**
+ * httpOnly, SameSite=Strict, only sent to the auth routes; Secure everywhere but loopback, and
+ * always in production (where the app sits behind HTTPS).
+ */
+function cookieOptionsOf(req: Request, secureCookies: boolean): CookieOptions {
+  return { httpOnly: true, sameSite: 'strict', path: refreshCookiePath, secure: secureCookies || req.secure || !isLoopback(req.hostname) }
 }
 
 export interface AuthLimits { register: RequestHandler, login: RequestHandler, reset: RequestHandler }
 
-export function authRoutes(auth: AuthService, limits: AuthLimits): Router {
+export function authRoutes(auth: AuthService, limits: AuthLimits, options: { secureCookies: boolean }): Router {
   const router = Router()
+  const cookieOptions = (req: Request): CookieOptions => cookieOptionsOf(req, options.secureCookies)
+  const sendSession = (req: Request, res: Response, session: Session, status: number): void => {
+    res.cookie(refreshCookieName, session.refreshToken, { ...cookieOptions(req), maxAge: refreshTtlMs })
+    res.status(status).json({ user: session.user, accessToken: session.accessToken })
+  }
   const ctx = (req: Request) => ({ ip: req.ip })
   const presented = (req: Request): string | undefined => (req.cookies as Record<string, string> | undefined)?.[refreshCookieName]
 

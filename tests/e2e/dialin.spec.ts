@@ -86,7 +86,7 @@ describe('dialling in at an event, offline', () => {
       if (number === 1) {
         // Net masses on a brew scale, readings from the Bar pen in %TDS.
         await onScreen(page, 'by-difference').click()
-        await onScreen(page, 'instrument').locator('ion-segment-button', { hasText: 'Bar pen' }).click()
+        await onScreen(page, 'instrument').locator('ion-segment-button', { hasText: /^Bar pen$/ }).click()
       }
       if (attempt.change)
         await fillField(page, 'change-note', attempt.change)

@@ -1,5 +1,6 @@
--- Every record moves into one table, with its full history copied into record_history and each
--- team's counter made for teams that have none yet. Nothing is dropped before it is copied.
+-- Every record moves into one table, with its full history copied into record_history (the record
+-- itself keeps the latest 20, as the server does) and each team's counter made for teams that have
+-- none yet, never behind the revs its records hold. Nothing is dropped before it is copied.
 CREATE TABLE `record_history` (
 	`record_id` char(36) NOT NULL,
 	`rev` bigint unsigned NOT NULL,
@@ -38,7 +39,9 @@ INSERT INTO `records` (`id`, `entity`, `team_id`, `created_by`, `created_at`, `u
 INSERT INTO `records` (`id`, `entity`, `team_id`, `created_by`, `created_at`, `updated_at`, `rev`, `deleted_at`, `data`, `derived`, `field_revs`, `history`, `history_count`, `parent_id`) SELECT `id`, 'recipe', `team_id`, `created_by`, `created_at`, `updated_at`, `rev`, `deleted_at`, `data`, `derived`, `field_revs`, `history`, COALESCE(JSON_LENGTH(`history`), 0), NULL FROM `recipes`;--> statement-breakpoint
 INSERT INTO `records` (`id`, `entity`, `team_id`, `created_by`, `created_at`, `updated_at`, `rev`, `deleted_at`, `data`, `derived`, `field_revs`, `history`, `history_count`, `parent_id`) SELECT `id`, 'zone', `team_id`, `created_by`, `created_at`, `updated_at`, `rev`, `deleted_at`, `data`, `derived`, `field_revs`, `history`, COALESCE(JSON_LENGTH(`history`), 0), NULL FROM `zones`;--> statement-breakpoint
 INSERT INTO `record_history` (`record_id`, `rev`, `entry`) SELECT r.`id`, h.`rev`, h.`entry` FROM `records` r, JSON_TABLE(r.`history`, '$[*]' COLUMNS (`rev` bigint PATH '$.rev', `entry` json PATH '$')) AS h WHERE r.`history` IS NOT NULL;--> statement-breakpoint
+UPDATE `records` SET `history` = JSON_EXTRACT(`history`, CONCAT('$[', `history_count` - 20, ' to ', `history_count` - 1, ']')) WHERE `history_count` > 20;--> statement-breakpoint
 INSERT IGNORE INTO `team_sync_state` (`team_id`, `last_rev`) SELECT `id`, 0 FROM `teams`;--> statement-breakpoint
+UPDATE `team_sync_state` s SET `last_rev` = GREATEST(s.`last_rev`, (SELECT COALESCE(MAX(r.`rev`), 0) FROM `records` r WHERE r.`team_id` = s.`team_id`));--> statement-breakpoint
 DROP TABLE `brews`;--> statement-breakpoint
 DROP TABLE `calibrations`;--> statement-breakpoint
 DROP TABLE `entries`;--> statement-breakpoint
