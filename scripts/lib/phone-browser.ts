@@ -2,6 +2,8 @@
 // what a person waits for. Every figure is wall time from the tap (or the navigation) until the
 // screen shows what makes it usable; CDP gives the heap and the CPU throttling.
 import type { Browser, BrowserContext, Page } from 'playwright-core'
+import os from 'node:os'
+import path from 'node:path'
 import { chromium } from 'playwright-core'
 
 interface SyncFigures {
@@ -153,8 +155,12 @@ export async function measurePhone(browser: Browser, baseURL: string, account: {
   await page.goto('/field')
   await visible(page, tabReady.field!).waitFor()
   const tab = async (name: string) => emit(`${name[0]!.toUpperCase()}${name.slice(1)} tab usable after a tap`, await within(() => tapTab(page, name)), 'ms', 1000)
-  for (const name of ['bench', 'zone', 'ledger'])
+  for (const name of ['bench', 'zone', 'ledger']) {
     await tab(name)
+    // A picture of each, to look at what a year of brews looks like there.
+    await page.waitForTimeout(300)
+    await page.screenshot({ path: path.join(os.tmpdir(), `lixivia-bench-${name}.png`) })
+  }
   const detail = await within(async () => {
     await visible(page, tabReady.ledger!).click()
     await onScreen(page, 'edit-brew').waitFor()
