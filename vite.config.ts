@@ -4,6 +4,9 @@ import { defineConfig } from 'vite'
 import { VitePWA } from 'vite-plugin-pwa'
 import { configDefaults } from 'vitest/config'
 import pkg from './package.json' with { type: 'json' }
+import { chunkFileName, ionicComponentsApart } from './scripts/lib/ionic-apart.ts'
+import { precompress } from './scripts/lib/precompress.ts'
+import { preloadFirstScreen } from './scripts/lib/preload-first-screen.ts'
 
 const apiTarget = `http://127.0.0.1:${process.env.PORT ?? '8080'}`
 
@@ -37,6 +40,7 @@ export default defineConfig({
       },
     }),
     ionicSideEffectFree(),
+    ionicComponentsApart(),
     VitePWA({
       registerType: 'prompt',
       injectRegister: false,
@@ -68,6 +72,8 @@ export default defineConfig({
         cleanupOutdatedCaches: true,
       },
     }),
+    preloadFirstScreen(['src/views/SignInPage.vue', 'src/stores/session.ts']),
+    precompress(),
   ],
   define: {
     __APP_VERSION__: JSON.stringify(pkg.version),
@@ -79,6 +85,15 @@ export default defineConfig({
   },
   build: {
     target: 'es2022',
+    // scripts/size.ts reads which chunks the first screen needs from it.
+    manifest: true,
+    rolldownOptions: { output: { chunkFileNames: chunkFileName } },
+    // Each lazy route lists the chunks to fetch beside it, and the lists live in the entry: the tab
+    // frame and the six tabs keep theirs (they open at once), other screens keep only their CSS and
+    // fetch the rest as their code asks for it, a few milliseconds later from the service worker.
+    modulePreload: {
+      resolveDependencies: (file, deps) => (/(?:ShellTabsPage|BenchPage|FieldPage|ZonePage|LedgerPage|GaugesPage|CrewPage|SignInPage)-/.test(file) ? deps : deps.filter(dep => dep.endsWith('.css'))),
+    },
     chunkSizeWarningLimit: 600,
   },
   test: {

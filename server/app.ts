@@ -8,8 +8,10 @@ import type { SyncHooks } from './services/sync.service'
 import type { FileStorage } from './storage/files'
 import { existsSync } from 'node:fs'
 import path from 'node:path'
+import compression from 'compression'
 import cookieParser from 'cookie-parser'
 import express from 'express'
+import expressStaticGzip from 'express-static-gzip'
 import helmet from 'helmet'
 import { pinoHttp } from 'pino-http'
 import { createAccessTokens } from './auth/tokens'
@@ -64,16 +66,27 @@ export interface AppDeps {
   pages?: express.Router
 }
 
+/**
+ * The built client, precompressed at build (vite.config.ts writes `.br` and `.gz` beside each text
+ * file): the encoding the browser accepts is chosen per request, brotli first, with `Vary:
+ * Accept-Encoding` so a cache keeps one copy per encoding.
+ */
 function serveClient(app: Express, dir: string): void {
-  app.use(express.static(dir, {
+  app.use(expressStaticGzip(dir, {
+    enableBrotli: true,
+    orderPreference: ['br', 'gzip'],
     index: false,
-    setHeaders(res, file) {
-      const name = path.basename(file)
-      // Hashed build assets never change; the shell, manifest and service worker must be re-checked.
-      if (file.includes(`${path.sep}assets${path.sep}`))
-        res.setHeader('Cache-Control', 'public, max-age=31536000, immutable')
-      else if (name === 'sw.js' || name.endsWith('.html') || name.endsWith('.webmanifest'))
-        res.setHeader('Cache-Control', 'no-cache')
+    serveStatic: {
+      index: false,
+      setHeaders(res, file) {
+        // The file sent may be the compressed twin (`sw.js.br`): its headers are those of the original.
+        const name = path.basename(file).replace(/\.(?:br|gz)$/, '')
+        // Hashed build assets never change; the shell, manifest and service worker must be re-checked.
+        if (file.includes(`${path.sep}assets${path.sep}`))
+          res.setHeader('Cache-Control', 'public, max-age=31536000, immutable')
+        else if (name === 'sw.js' || name.endsWith('.html') || name.endsWith('.webmanifest'))
+          res.setHeader('Cache-Control', 'no-cache')
+      },
     },
   }))
   const indexHtml = path.join(dir, 'index.html')
@@ -111,6 +124,9 @@ export function createApp(deps: AppDeps): Express {
       res: (res: { statusCode: number }) => ({ status: res.statusCode }),
     },
   }))
+  // Answers made per request (JSON, the app shell) are compressed on the way out, brotli when the
+  // client takes it; responses already encoded (the precompressed client) and images pass as they are.
+  app.use(compression({ threshold: 1024 }))
   app.use(express.json({ limit: deps.bodyLimit }))
   app.use(cookieParser())
 

@@ -1,5 +1,6 @@
-// The app that `npm run bench:api` loads, in a process of its own so that the load generator does not
-// share its event loop. Listens on a free loopback port and sends it to the parent over IPC.
+// The app that `npm run bench:api` and `npm run bench:phone` load, in a process of its own so that the
+// load generator (or the browser driver) does not share its event loop. Listens on a free loopback
+// port and sends it to the parent over IPC; BENCH_STATIC_DIR serves the built client beside the API.
 import type { AddressInfo } from 'node:net'
 import { once } from 'node:events'
 import { mkdtempSync } from 'node:fs'
@@ -28,6 +29,7 @@ const app = createApp({
   publicUrl: 'http://127.0.0.1/',
   rateLimits: { register: unlimited, login: unlimited, reset: unlimited },
   files: createDiskStorage(mkdtempSync(path.join(os.tmpdir(), 'lixivia-bench-files-'))),
+  staticDir: process.env.BENCH_STATIC_DIR || undefined,
 })
 const http = app.listen(0, '127.0.0.1')
 await once(http, 'listening')

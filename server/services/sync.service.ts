@@ -1,10 +1,10 @@
 import type { Role } from '../../shared/schemas/auth'
 import type { HistoryEntry } from '../../shared/schemas/records'
-import type { Change, Mutation, MutationResult } from '../../shared/schemas/sync'
+import type { Mutation, MutationResult, PullResponse } from '../../shared/schemas/sync'
 import type { Db } from '../db/client'
 import type { Touch } from '../sync/derive'
 import type { TeamsService } from './teams.service'
-import { and, asc, eq, gt } from 'drizzle-orm'
+import { and, asc, count, eq, gt } from 'drizzle-orm'
 import { maxMutationsPerPush, MutationSchema, PullQuerySchema, PushBodySchema } from '../../shared/schemas/sync'
 import { retryOnContention } from '../db/retry'
 import { recordHistory, records, teamSyncState } from '../db/schema'
@@ -141,16 +141,22 @@ export function createSyncService(deps: { db: Db, teams: TeamsService, hooks?: S
      * Changes after a cursor, in rev order: one range of the (team, rev) index, so a page costs the
      * same whatever the entities and however many records the team holds.
      */
-    async pull(userId: string, query: unknown): Promise<{ changes: Change[], cursor: number, hasMore: boolean }> {
+    async pull(userId: string, query: unknown): Promise<PullResponse> {
       const { teamId, since, limit } = PullQuerySchema.parse(query)
       const role = await deps.teams.roleIn(teamId, userId)
       const rows = await db.select().from(records).where(and(eq(records.teamId, teamId), gt(records.rev, since))).orderBy(asc(records.rev)).limit(limit + 1)
       const page = rows.slice(0, limit)
+      const cursor = page.at(-1)?.rev ?? since
+      const hasMore = rows.length > limit
+      // How many changes wait after this page, for the phone's "n of m": counted on the same
+      // (team, rev) index, and only when there is more (a last page waits for none).
+      const [left] = hasMore ? await db.select({ n: count() }).from(records).where(and(eq(records.teamId, teamId), gt(records.rev, cursor))) : [{ n: 0 }]
       const sent = await visibleRecords(db, role, page)
       return {
         changes: page.map((row, index) => ({ entity: row.entity, id: row.id, rev: row.rev, op: row.deletedAt ? 'delete' : 'put', data: sent[index]! })),
-        cursor: page.at(-1)?.rev ?? since,
-        hasMore: rows.length > limit,
+        cursor,
+        hasMore,
+        remaining: left?.n ?? 0,
       }
     },
 

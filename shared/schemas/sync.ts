@@ -37,13 +37,24 @@ export const MutationResultSchema = z.object({
 export type MutationResult = z.infer<typeof MutationResultSchema>
 export const PushResponseSchema = z.object({ results: z.array(MutationResultSchema) })
 
+/** Changes per pull page a phone asks for: a new phone's first sync takes the team in pages this size. */
+export const pullPageSize = 1000
+/** The largest page a pull answers (a page of brews is about 300 bytes of JSON a record). */
+export const maxPullLimit = 2000
+
 export const PullQuerySchema = z.object({
   teamId: IdSchema,
   since: z.coerce.number().int().nonnegative().default(0),
-  limit: z.coerce.number().int().min(1).max(1000).default(500),
+  limit: z.coerce.number().int().min(1).max(maxPullLimit).default(500),
 })
 // Any entity name: a phone skips kinds of records a newer server has and this version does not know.
 export const ChangeSchema = z.object({ entity: z.string(), id: z.string(), rev: z.number().int(), op: z.enum(['put', 'delete']), data: z.record(z.string(), z.unknown()) })
 export type Change = z.infer<typeof ChangeSchema>
-export const PullResponseSchema = z.object({ changes: z.array(ChangeSchema), cursor: z.number().int(), hasMore: z.boolean() })
+export const PullResponseSchema = z.object({
+  changes: z.array(ChangeSchema),
+  cursor: z.number().int(),
+  hasMore: z.boolean(),
+  /** Changes after this page (for progress); optional, as a server older than this does not send it. */
+  remaining: z.number().int().nonnegative().optional(),
+})
 export type PullResponse = z.infer<typeof PullResponseSchema>

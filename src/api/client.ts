@@ -4,15 +4,9 @@ import type { Health } from '../../shared/schemas/health'
 import { ApiErrorBodySchema } from '../../shared/schemas/api-error'
 import { AuthResponseSchema } from '../../shared/schemas/auth'
 import { HealthSchema } from '../../shared/schemas/health'
+import { ApiError } from './errors'
 
-/** A failed API call: the server's error code and message, or `network` when nothing answered. */
-export class ApiError extends Error {
-  override name = 'ApiError'
-
-  constructor(readonly status: number, readonly code: string, message: string, readonly issues: { path: string, message: string }[] = []) {
-    super(message)
-  }
-}
+export { ApiError }
 
 // The access token lives only in memory: never in localStorage or IndexedDB.
 let accessToken: string | null = null

@@ -24,7 +24,8 @@ export function useCuppingTable(tableId: Ref<string>) {
       return none
     const [lots, brews, scores] = await Promise.all([
       db.lots.bulkGet(table.lotIds),
-      db.brews.where('teamId').equals(table.teamId).filter(brew => !brew.deletedAt && brew.context.kind === 'lot' && brew.context.tableId === table.id).toArray(),
+      // The bowls of the table's lots, found by the lot they were brewed for (an index), not by the team.
+      db.brews.where('context.refId').anyOf(table.lotIds).filter(brew => !brew.deletedAt && brew.teamId === table.teamId && brew.context.kind === 'lot' && brew.context.tableId === table.id).toArray(),
       db.scores.where('tableId').equals(table.id).filter(score => !score.deletedAt).toArray(),
     ])
     const bowls = new Map<string, LocalRecord<'brew'>[]>(table.lotIds.map(id => [id, []]))

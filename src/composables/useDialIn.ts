@@ -35,6 +35,19 @@ export function figuresOf(brew: Brew): AttemptFigures | null {
   return { method: brew.method, dose, beverageMass, waterMass: brew.waterMass, tdsPercent, yieldPercent, grindSetting: brew.grindSetting, waterTemperatureC: brew.waterTemperatureC, retainedRatio }
 }
 
+/** The team's latest brews that size a suggested change, however many the phone holds. */
+const historyLimit = 1000
+
+/** The session's attempts (by the index of the session they name) and the team's latest brews, each once. */
+async function sessionAndRecent(teamId: string, sessionId: string): Promise<Brew[]> {
+  const [attempts, recent] = await Promise.all([
+    db.brews.where('context.sessionId').equals(sessionId).filter(brew => !brew.deletedAt && brew.teamId === teamId).toArray(),
+    brewsNewestFirst(teamId, historyLimit),
+  ])
+  const seen = new Set(attempts.map(brew => brew.id))
+  return [...attempts, ...recent.filter(brew => !seen.has(brew.id))]
+}
+
 /**
  * A dial-in session from the phone's store: its recipe and the version it stands at, the target
  * its attempts aim at, the attempts in the order brewed, and what to change after any of them
@@ -44,7 +57,7 @@ export function useDialIn(sessionId: Ref<string>, teamId: Ref<string | null>) {
   const contexts = useBrewContexts(teamId)
   const { value: rows, state } = useLiveQuery(async () => ({
     session: await db.dialIns.get(sessionId.value),
-    brews: teamId.value ? await brewsNewestFirst(teamId.value) : [],
+    brews: teamId.value ? await sessionAndRecent(teamId.value, sessionId.value) : [],
   }), { session: undefined as LocalRecord<'dialIn'> | undefined, brews: [] as Brew[] }, computed(() => [sessionId.value, teamId.value]))
 
   const session = computed(() => (rows.value.session && !rows.value.session.deletedAt ? rows.value.session : undefined))

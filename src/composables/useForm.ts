@@ -1,7 +1,7 @@
 import type { Ref } from 'vue'
 import type { z } from 'zod'
 import { reactive, ref } from 'vue'
-import { ApiError } from '../api/client'
+import { ApiError } from '../api/errors'
 
 /**
  * A form's errors beside each field, worded with the field's label ("Password must be at least 10

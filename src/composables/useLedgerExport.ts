@@ -3,14 +3,14 @@ import type { Zone } from '../../shared/brewing'
 import type { LocalRecord } from '../db/database'
 import type { LedgerExportContext } from '../forms/ledgerExport'
 import type { BrewContexts } from './useBrewContexts'
-import Papa from 'papaparse'
 import { db } from '../db/database'
 import { ledgerRows, readingRows } from '../forms/ledgerExport'
 
 type Brew = LocalRecord<'brew'>
 
-/** Hands a CSV to the browser to save; works offline. */
-function download(rows: Record<string, string | number>[], name: string): void {
+/** Hands a CSV to the browser to save; works offline. The CSV writer loads with the first export. */
+async function download(rows: Record<string, string | number>[], name: string): Promise<void> {
+  const { default: Papa } = await import('papaparse')
   const link = document.createElement('a')
   link.href = URL.createObjectURL(new Blob([Papa.unparse(rows)], { type: 'text/csv;charset=utf-8' }))
   link.download = `lixivia-${name}-${new Date().toISOString().slice(0, 10)}.csv`

@@ -55,7 +55,7 @@ export function useTrip(tripId: Ref<string>) {
     const lotIds = new Set(live(lots).map(lot => lot.id))
     const tableIds = live(tables).map(table => table.id)
     const [brews, scores, photos] = await Promise.all([
-      db.brews.where('teamId').equals(trip.teamId).filter(brew => !brew.deletedAt && brew.context.kind === 'lot' && lotIds.has(brew.context.refId ?? '')).toArray(),
+      db.brews.where('context.refId').anyOf([...lotIds]).filter(brew => !brew.deletedAt && brew.teamId === trip.teamId && brew.context.kind === 'lot').toArray(),
       db.scores.where('tableId').anyOf(tableIds).toArray(),
       db.photos.where('teamId').equals(trip.teamId).filter(photo => !photo.deletedAt && (photo.tripId === trip.id || lotIds.has(photo.lotId ?? ''))).toArray(),
     ])

@@ -193,6 +193,13 @@ export class LixiviaDatabase extends Dexie {
     this.version(7).stores({ recipeVersions: 'id, teamId, recipeId, sync.state', houseRecipes: 'id, teamId, sync.state', dialIns: 'id, teamId, recipeId, sync.state' }).upgrade(async (tx) => {
       await tx.table('meta').where('key').startsWith('cursor:').delete()
     })
+    // A year of brews on a phone: the Ledger pages and filters them through indexes (method, kind
+    // of context, deleted), and the workflows find their brews by the record they were measured
+    // for. A brew not deleted has no deletedAt key, so the deleted ones are a small index of their own;
+    // a brew's two figures are an index too, so the chart reads a year of them as keys only.
+    this.version(20).stores({
+      brews: 'id, teamId, [teamId+brewedAt], [teamId+updatedAt], sync.state, [teamId+method+brewedAt], [teamId+context.kind+brewedAt], [teamId+deletedAt], context.refId, context.sessionId, [teamId+derived.tdsPercent+derived.yieldPercent]',
+    })
     this.records = {
       instrument: this.instruments,
       calibration: this.calibrations,

@@ -25,3 +25,7 @@ export const when = (iso: string): string => dateTime.format(new Date(iso))
 export const timeOf = (iso: string): string => timeOnly.format(new Date(iso))
 /** The day only: "2 Dec 2026". */
 export const dayOf = (iso: string): string => dayOnly.format(new Date(iso))
+
+const whole = new Intl.NumberFormat(undefined, { maximumFractionDigits: 0 })
+/** A count as the phone's locale groups it: "12,000". */
+export const countText = (n: number): string => whole.format(n)

@@ -1,9 +1,9 @@
 import type { AlertOptions } from '@ionic/core/components'
-import { alertController } from '@ionic/core/components'
-import { defineCustomElement } from '@ionic/core/components/ion-alert.js'
 
-/** Shows an alert and resolves once it is on screen (see README: why not @ionic/vue's controller). */
+/**
+ * Shows an alert and resolves once it is on screen (see README: why not @ionic/vue's controller).
+ * The alert's web component loads with the first alert, not with the screen that may show one.
+ */
 export async function presentAlert(options: AlertOptions): Promise<void> {
-  defineCustomElement()
-  await (await alertController.create(options)).present()
+  return (await import('./alert-element')).showAlert(options)
 }

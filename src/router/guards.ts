@@ -24,8 +24,13 @@ export function installGuards(router: Router): void {
     }
     if (!session.user)
       return { name: 'sign-in', query: { redirect: to.fullPath } }
-    // The outbox and sync engine load with the first signed-in screen, not in the entry chunk.
-    void import('../stores/sync').then(({ useSyncStore }) => useSyncStore().start())
+    // The outbox and sync engine load once the first signed-in screen has shown (when the phone is
+    // idle, within 2 s), not in the entry chunk and not in the way of that screen's own reads.
+    const startSync = () => void import('../stores/sync').then(({ useSyncStore }) => useSyncStore().start())
+    if (typeof requestIdleCallback === 'function')
+      requestIdleCallback(startSync, { timeout: 2000 })
+    else
+      setTimeout(startSync, 0)
     return true
   })
 }

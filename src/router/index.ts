@@ -1,14 +1,14 @@
 import type { RouteRecordRaw } from 'vue-router'
 import { createRouter, createWebHistory } from '@ionic/vue-router'
-import ShellTabsPage from '../views/ShellTabsPage.vue'
 import { installGuards } from './guards'
 
-/** The six tabs and the account screens; every page but the tab frame loads when first opened. */
+/** The six tabs and the account screens; every page, and the tab frame, loads when first opened. */
 export const routes: RouteRecordRaw[] = [
   { path: '/', redirect: '/bench' },
   {
     path: '/',
-    component: ShellTabsPage,
+    // The tab frame loads with the first tab: the sign-in screen needs none of it.
+    component: () => import('../views/ShellTabsPage.vue'),
     children: [
       { path: 'bench', name: 'bench', component: () => import('../views/BenchPage.vue') },
       { path: 'field', name: 'field', component: () => import('../views/FieldPage.vue') },

@@ -2,10 +2,14 @@ import type { Actor } from '../../shared/records/rules'
 import type { Membership, Role, User } from '../../shared/schemas/auth'
 import { defineStore } from 'pinia'
 import { computed, ref, toRaw } from 'vue'
-import { can } from '../../shared/records/rules'
-import { signIn as apiSignIn, signOut as apiSignOut, signUp as apiSignUp, fetchMe } from '../api/accounts'
-import { ApiError, refreshSession, whenSessionEnds } from '../api/client'
-import { db } from '../db/database'
+import { ApiError } from '../api/errors'
+import { readCachedIdentity } from '../db/identity'
+
+// The database, the API client and the record rules load when first needed: a phone nobody is
+// signed in on shows the sign-in screen without Dexie or zod (npm run size).
+const database = async () => (await import('../db/database')).db
+const accounts = () => import('../api/accounts')
+const client = () => import('../api/client')
 
 /**
  * starting: not known yet. signed-in: the server knows us. offline: no signal, working under the
@@ -20,6 +24,7 @@ export type SessionStatus = 'starting' | 'signed-in' | 'offline' | 'expired' | '
  * team is pulled again from the start, so the records on the phone are what this reader may hold.
  */
 async function pullAgainIfReaderChanged(userId: string, memberships: Membership[]): Promise<void> {
+  const db = await database()
   for (const membership of memberships) {
     const key = `pulledAs:${membership.teamId}`
     const reader = `${userId}:${membership.role}`
@@ -27,6 +32,7 @@ async function pullAgainIfReaderChanged(userId: string, memberships: Membership[
       continue
     await db.meta.delete(`cursor:${membership.teamId}`)
     await db.meta.put({ key, value: reader })
+    const { can } = await import('../../shared/records/rules')
     if (!can.seeCompetitors(membership.role, false))
       await forgetCompetitors(membership.teamId)
   }
@@ -34,6 +40,7 @@ async function pullAgainIfReaderChanged(userId: string, memberships: Membership[
 
 /** Blanks the competitors of cups in rounds not signed off, kept here from an earlier reader. */
 async function forgetCompetitors(teamId: string): Promise<void> {
+  const db = await database()
   await db.transaction('rw', db.entries, db.rounds, async () => {
     const open = new Set((await db.rounds.where('teamId').equals(teamId).toArray()).filter(round => !round.derived).map(round => round.id))
     await db.entries.where('teamId').equals(teamId).filter(entry => open.has(entry.roundId) && entry.contestant !== '').modify({ contestant: '' })
@@ -59,11 +66,11 @@ export const useSessionStore = defineStore('session', () => {
       activeTeamId.value = next.memberships[0]?.teamId ?? null
     await pullAgainIfReaderChanged(next.user.id, next.memberships)
     // IndexedDB cannot store Vue proxies: write plain copies.
-    await db.identity.put({ key: 'current', user: toRaw(user.value), memberships: memberships.value.map(m => ({ ...toRaw(m) })), activeTeamId: activeTeamId.value, cachedAt: new Date().toISOString() })
+    await (await database()).identity.put({ key: 'current', user: toRaw(user.value), memberships: memberships.value.map(m => ({ ...toRaw(m) })), activeTeamId: activeTeamId.value, cachedAt: new Date().toISOString() })
   }
 
   async function loadProfile(): Promise<void> {
-    await remember(await fetchMe())
+    await remember(await (await accounts()).fetchMe())
     status.value = 'signed-in'
   }
 
@@ -71,7 +78,7 @@ export const useSessionStore = defineStore('session', () => {
   /** Once per app start: the cached identity first, then the server's word if there is signal. */
   function ready(): Promise<void> {
     restoring ??= (async () => {
-      const cached = await db.identity.get('current')
+      const cached = await readCachedIdentity()
       if (cached) {
         user.value = cached.user
         memberships.value = cached.memberships
@@ -88,7 +95,7 @@ export const useSessionStore = defineStore('session', () => {
         return
       }
       try {
-        const session = await refreshSession()
+        const session = await (await client()).refreshSession()
         if (session)
           await loadProfile()
         else
@@ -103,23 +110,23 @@ export const useSessionStore = defineStore('session', () => {
     return restoring
   }
 
-  whenSessionEnds(() => {
+  void client().then(({ whenSessionEnds }) => whenSessionEnds(() => {
     status.value = user.value ? 'expired' : 'signed-out'
-  })
+  }))
 
   async function signIn(email: string, password: string): Promise<void> {
-    await apiSignIn(email, password)
+    await (await accounts()).signIn(email, password)
     await loadProfile()
   }
 
   async function signUp(name: string, email: string, password: string): Promise<void> {
-    await apiSignUp(name, email, password)
+    await (await accounts()).signUp(name, email, password)
     await loadProfile()
   }
 
   async function signOut(): Promise<void> {
-    await apiSignOut().catch(() => undefined)
-    await db.identity.delete('current')
+    await (await accounts()).signOut().catch(() => undefined)
+    await (await database()).identity.delete('current')
     user.value = null
     memberships.value = []
     activeTeamId.value = null
@@ -128,7 +135,7 @@ export const useSessionStore = defineStore('session', () => {
 
   async function switchTeam(teamId: string): Promise<void> {
     activeTeamId.value = teamId
-    await db.identity.update('current', { activeTeamId: teamId })
+    await (await database()).identity.update('current', { activeTeamId: teamId })
   }
 
   return { status, user, memberships, activeTeamId, activeMembership, role, canManageTeam, actor, ready, signIn, signUp, signOut, switchTeam, reloadProfile: loadProfile }

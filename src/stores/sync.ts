@@ -16,7 +16,7 @@ const intervalMs = 30_000
 
 /** Sync status for the shell: what waits, when it last went through, what needs the person. */
 export const useSyncStore = defineStore('sync', () => {
-  const status = ref<SyncStatus>({ state: 'idle', pending: 0, attention: 0, lastSyncedAt: null, oldestPendingAt: null, error: null })
+  const status = ref<SyncStatus>({ state: 'idle', pending: 0, attention: 0, lastSyncedAt: null, oldestPendingAt: null, error: null, progress: null })
   const persisted = ref<boolean | null>(null)
   const stale = computed(() => status.value.oldestPendingAt !== null && Date.now() - Date.parse(status.value.oldestPendingAt) > staleAfterMs)
   const uploads = ref<UploadStatus>({ waiting: 0, sending: null, failed: 0 })

@@ -1,15 +1,16 @@
 import type { EntityName } from '../../shared/schemas/entities'
 import type { EntityRecord } from '../../shared/schemas/records'
-import type { Change, MutationResult } from '../../shared/schemas/sync'
-import type { LixiviaDatabase, OutboxEntry } from '../db/database'
+import type { Change, MutationResult, PullResponse } from '../../shared/schemas/sync'
+import type { LixiviaDatabase, LocalRecord, OutboxEntry } from '../db/database'
 import { v7 as uuidv7 } from 'uuid'
 import { isEntityName } from '../../shared/records/registry'
 import { recordSchemaOf } from '../../shared/schemas/records'
+import { pullPageSize } from '../../shared/schemas/sync'
 import { localCopy } from '../db/database'
 
 export interface SyncTransport {
   push: (body: { clientId: string, mutations: Omit<OutboxEntry, 'seq' | 'createdAt' | 'sentAt' | 'rejected'>[] }) => Promise<{ results: MutationResult[] }>
-  pull: (teamId: string, since: number, limit: number) => Promise<{ changes: Change[], cursor: number, hasMore: boolean }>
+  pull: (teamId: string, since: number, limit: number) => Promise<PullResponse>
 }
 
 export type SyncState = 'idle' | 'syncing' | 'waiting' | 'signed-out' | 'error'
@@ -24,7 +25,12 @@ export interface SyncStatus {
   /** The oldest unsynced change, to warn before a browser evicts old site data. */
   oldestPendingAt: string | null
   error: string | null
+  /** A pull of many pages under way (a new phone's first sync): records kept so far of the total. */
+  progress: SyncProgress | null
 }
+
+/** total counts what the server said was left after the latest page; a server that does not say gives received. */
+export interface SyncProgress { teamId: string, received: number, total: number }
 
 /** What the transport throws: a status (0 with no network) decides between retrying and stopping. */
 export interface TransportError { status: number, message: string }
@@ -60,7 +66,7 @@ function wait(retry: () => void, delayMs: number): void {
 export function createSyncEngine(options: SyncEngineOptions) {
   const { database, transport } = options
   const batchSize = options.batchSize ?? 200
-  const pullLimit = options.pullLimit ?? 500
+  const pullLimit = options.pullLimit ?? pullPageSize
   const schedule = options.schedule ?? wait
   const isOnline = options.isOnline ?? (() => true)
   let running: Promise<void> | null = null
@@ -68,7 +74,7 @@ export function createSyncEngine(options: SyncEngineOptions) {
   let failures = 0
   /** Records of this run's pulls that this version could not read. */
   let unreadable = 0
-  let status: SyncStatus = { state: 'idle', pending: 0, attention: 0, lastSyncedAt: null, oldestPendingAt: null, error: null }
+  let status: SyncStatus = { state: 'idle', pending: 0, attention: 0, lastSyncedAt: null, oldestPendingAt: null, error: null, progress: null }
 
   async function clientId(): Promise<string> {
     const stored = await database.meta.get('clientId')
@@ -160,33 +166,72 @@ export function createSyncEngine(options: SyncEngineOptions) {
     }
   }
 
-  /** Keeps one pulled record; false when this version cannot read it (it is skipped, not stored). */
-  async function take<E extends EntityName>(entity: E, change: Change): Promise<boolean> {
+  /**
+   * Keeps one entity's share of a pulled page, written in one bulkPut. A record with changes of its
+   * own here is settled by its push, never overwritten: those are found on the sync-state index
+   * (a handful at most), not by reading the phone's copy of every record in the page. Returns how
+   * many records this version could not read (they are skipped, not stored).
+   */
+  async function takeAll<E extends EntityName>(entity: E, changes: Change[]): Promise<number> {
     const table = database.records[entity]
-    const local = await table.get(change.id)
-    // A record with changes of its own here is settled by its push, never overwritten.
-    if (local && local.sync.state !== 'clean')
-      return true
-    const record = readServerRecord(entity, change.data)
-    if (record)
-      await table.put(localCopy(record, { state: 'clean', baseRev: record.rev }))
-    return Boolean(record)
+    const own = new Set(await table.where('sync.state').anyOf(['pending', 'conflict', 'rejected']).primaryKeys())
+    const kept: LocalRecord<E>[] = []
+    let skipped = 0
+    changes.forEach((change) => {
+      if (own.has(change.id))
+        return
+      const record = readServerRecord(entity, change.data)
+      if (record)
+        kept.push(localCopy(record, { state: 'clean', baseRev: record.rev }))
+      else
+        skipped += 1
+    })
+    await table.bulkPut(kept)
+    return skipped
   }
 
+  /** Shows how far a pull of many pages has come (a new phone's first sync), without a full recount. */
+  function progress(next: SyncProgress | null): void {
+    status = { ...status, progress: next }
+    options.onStatus?.(status)
+  }
+
+  /**
+   * Pulls a team page by page after its cursor. Each page and its cursor are kept in one
+   * transaction over the tables it touches only, so a dropped connection resumes after the last
+   * page kept, and screens reading other tables are not held up meanwhile. The next page is asked
+   * for as soon as this one arrives, so the server and the network work while the phone stores.
+   */
   async function pullTeam(teamId: string): Promise<void> {
     const cursorKey = `cursor:${teamId}`
-    let since = Number((await database.meta.get(cursorKey))?.value ?? 0)
+    const since = Number((await database.meta.get(cursorKey))?.value ?? 0)
+    let received = 0
+    let next: Promise<PullResponse> | null = transport.pull(teamId, since, pullLimit)
     for (let more = true; more;) {
-      const page = await transport.pull(teamId, since, pullLimit)
-      await database.transaction('rw', [database.meta, ...database.recordTables], async () => {
-        for (const change of page.changes) {
-          if (isEntityName(change.entity))
-            unreadable += (await take(change.entity, change)) ? 0 : 1
-        }
+      const page: PullResponse = await next!
+      next = page.hasMore ? transport.pull(teamId, page.cursor, pullLimit) : null
+      // A failure of the page asked ahead is met when it is awaited; until then it must not go unhandled.
+      next?.catch(() => {})
+      const byEntity = new Map<EntityName, Change[]>()
+      for (const change of page.changes) {
+        // A kind of record a newer server has and this version does not know is passed over.
+        if (!isEntityName(change.entity))
+          continue
+        const list = byEntity.get(change.entity)
+        if (list)
+          list.push(change)
+        else
+          byEntity.set(change.entity, [change])
+      }
+      await database.transaction('rw', [database.meta, ...[...byEntity.keys()].map(entity => database.records[entity])], async () => {
+        for (const [entity, changes] of byEntity)
+          unreadable += await takeAll(entity, changes)
         await database.meta.put({ key: cursorKey, value: page.cursor })
       })
-      since = page.cursor
       more = page.hasMore
+      received += page.changes.length
+      if (more || status.progress)
+        progress(more ? { teamId, received, total: received + (page.remaining ?? 0) } : null)
     }
   }
 
@@ -207,6 +252,8 @@ export function createSyncEngine(options: SyncEngineOptions) {
       await report({ state: 'idle', lastSyncedAt, error: unreadable ? `${unreadable} records from the team server need a newer version of the app; update it to see them.` : null })
     }
     catch (error) {
+      // A pull cut short resumes from its cursor next time; its progress is shown again then.
+      status = { ...status, progress: null }
       // Whatever was in flight goes out again next time; the server answers repeats from memory.
       await database.outbox.toCollection().modify((entry) => {
         if (!entry.rejected)

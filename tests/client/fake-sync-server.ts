@@ -21,7 +21,11 @@ export function fakeServer() {
   const answered = new Map<string, MutationResult>()
   let rev = 0
   let offline = false
+  /** Pull pages answered before the connection drops (Infinity: it never does). */
+  let pagesBeforeDrop = Infinity
   const pushes: unknown[] = []
+  /** The cursor of each pull asked for, in order. */
+  const pulls: number[] = []
   const transport: SyncTransport = {
     async push(body) {
       if (offline)
@@ -50,17 +54,25 @@ export function fakeServer() {
         }),
       }
     },
-    async pull(_team, since) {
-      if (offline)
+    async pull(_team, since, limit) {
+      if (offline || pagesBeforeDrop <= 0)
         throw new Offline('No network')
-      const changes: Change[] = [...records.entries()].filter(([, r]) => r.rev > since).sort((a, b) => a[1].rev - b[1].rev).map(([id, r]) => ({ entity: 'instrument', id, rev: r.rev, op: r.deleted ? 'delete' : 'put', data: stored(id, r) }))
-      return { changes, cursor: changes.at(-1)?.rev ?? since, hasMore: false }
+      pagesBeforeDrop -= 1
+      pulls.push(since)
+      const after: Change[] = [...records.entries()].filter(([, r]) => r.rev > since).sort((a, b) => a[1].rev - b[1].rev).map(([id, r]) => ({ entity: 'instrument', id, rev: r.rev, op: r.deleted ? 'delete' : 'put', data: stored(id, r) }))
+      const changes = after.slice(0, limit)
+      return { changes, cursor: changes.at(-1)?.rev ?? since, hasMore: after.length > limit, remaining: after.length - changes.length }
     },
   }
   return {
     transport,
     records,
     pushes,
+    pulls,
+    /** The connection drops after this many more pull pages. */
+    dropAfterPages: (pages: number) => {
+      pagesBeforeDrop = pages
+    },
     setOffline: (value: boolean) => {
       offline = value
     },

@@ -1,4 +1,4 @@
-import type { Browser, BrowserContext, Page } from 'playwright-core'
+import type { Browser, BrowserContext, Locator, Page } from 'playwright-core'
 import { mkdirSync } from 'node:fs'
 import path from 'node:path'
 import { fileURLToPath } from 'node:url'
@@ -132,4 +132,25 @@ export async function tapChartPoint(page: Page, rgb: [number, number, number]): 
   if (!spot)
     throw new Error(`No point of colour ${rgb.join(', ')} on the chart.`)
   await canvas.click({ position: spot })
+}
+
+/**
+ * Scrolls the Ledger a screen at a time until `row` is in the page or the list ends: the Ledger
+ * renders a window of rows (a year of brews), so a row further down exists only once scrolled to.
+ */
+export async function scrollLedgerTo(page: Page, row: Locator): Promise<void> {
+  for (let step = 0; step < 60 && (await row.count()) === 0; step++) {
+    const moved = await page.evaluate(async () => {
+      const content = Array.from(document.querySelectorAll('ion-content')).find(el => !el.closest('.ion-page-hidden') && el.querySelector('[data-test="ledger-list"]')) as (HTMLElement & { getScrollElement: () => Promise<HTMLElement> }) | undefined
+      const scroller = await content?.getScrollElement()
+      if (!scroller)
+        return false
+      const before = scroller.scrollTop
+      scroller.scrollBy(0, scroller.clientHeight * 0.8)
+      return scroller.scrollTop !== before
+    })
+    await page.waitForTimeout(150)
+    if (!moved)
+      return
+  }
 }

@@ -1,6 +1,6 @@
 import type { Browser, BrowserContext, Locator, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { addReading, fillField, launchBrowser, onScreen, phoneContext, screenshot, signIn, watchErrors } from './browser'
+import { addReading, fillField, launchBrowser, onScreen, phoneContext, screenshot, scrollLedgerTo, signIn, watchErrors } from './browser'
 
 // What practitioners tripped over at 390 × 844, on the seeded demo team (server/db/seed.ts): the
 // head judge's phone judges a cup by its event's zone, a wild reading stays out of the result, the
@@ -39,7 +39,10 @@ describe('a cup\'s verdict', () => {
 
   it('stays the event zone\'s whatever zone the phone shows on its chart', async () => {
     await page.goto('/ledger')
-    await expect.poll(() => cupRow().count(), { timeout: 20_000 }).toBe(1)
+    await expect.poll(async () => {
+      await scrollLedgerTo(page, cupRow())
+      return cupRow().count()
+    }, { timeout: 20_000 }).toBe(1)
     const before = await cupRow().locator('ion-badge').innerText()
     expect(before).toMatch(/in/i)
     await page.locator('#tab-button-zone').click()
@@ -102,12 +105,16 @@ describe('the phone offline after a reload', () => {
     await page.goto('/ledger')
     // A brew the demo's member recorded, named once the phone has kept the team's members.
     const teammates = onScreen(page, 'ledger-list').locator('ion-item', { hasText: 'V60, 40 s bloom' })
-    await expect.poll(() => teammates.innerText(), { timeout: 20_000 }).toContain('Mats Quillon')
+    const teammatesRow = async (): Promise<string> => {
+      await scrollLedgerTo(page, teammates)
+      return (await teammates.count()) ? teammates.first().innerText() : ''
+    }
+    await expect.poll(teammatesRow, { timeout: 20_000 }).toContain('Mats Quillon')
     await page.evaluate(async () => navigator.serviceWorker.ready)
     await context.setOffline(true)
     try {
       await page.reload()
-      await expect.poll(() => teammates.innerText(), { timeout: 20_000 }).toContain('Mats Quillon')
+      await expect.poll(teammatesRow, { timeout: 20_000 }).toContain('Mats Quillon')
       await page.locator('#tab-button-crew').click()
       await expect.poll(() => onScreen(page, 'account').innerText()).toContain('Signed in; working offline on this phone')
       const synced = await onScreen(page, 'sync').innerText()

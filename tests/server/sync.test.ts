@@ -166,14 +166,18 @@ describe('GET /api/v1/sync/pull', () => {
     const team = (await request(app).post('/api/v1/teams').set(...bearer(crew.owner)).send({ name: 'Paging Crew' })).body.team.id
     await push(app, crew.owner, Array.from({ length: 7 }, (_, i) => put('instrument', team, instrument(`Gauge ${i}`))))
     const pages: number[][] = []
+    const remaining: number[] = []
     let since = 0
     for (let more = true; more;) {
       const body = (await pull(app, crew.owner, team, since, 3)).body
       pages.push(body.changes.map((c: { rev: number }) => c.rev))
+      remaining.push(body.remaining)
       since = body.cursor
       more = body.hasMore
     }
     expect(pages).toEqual([[1, 2, 3], [4, 5, 6], [7]])
+    // What is left after each page, for the phone's "n of m".
+    expect(remaining).toEqual([4, 1, 0])
   })
 
   it('carries tombstones', async () => {
