@@ -1,63 +1,20 @@
 import type { EntityName } from '../../shared/schemas/entities'
-import type { EntityRecord } from '../../shared/schemas/records'
-import type { Change, MutationResult, PullResponse } from '../../shared/schemas/sync'
-import type { LixiviaDatabase, LocalRecord, OutboxEntry } from '../db/database'
+import type { MutationResult, PullResponse } from '../../shared/schemas/sync'
+import type { OutboxEntry } from '../db/database'
+import type { SyncEngineOptions, SyncProgress, SyncStatus, TransportError } from './engine-types'
 import { v7 as uuidv7 } from 'uuid'
-import { isEntityName } from '../../shared/records/registry'
-import { recordSchemaOf } from '../../shared/schemas/records'
 import { pullPageSize } from '../../shared/schemas/sync'
-import { localCopy } from '../db/database'
+import { byEntityOf, keepPulled, readServerRecord } from './pull'
 
-export interface SyncTransport {
-  push: (body: { clientId: string, mutations: Omit<OutboxEntry, 'seq' | 'createdAt' | 'sentAt' | 'rejected'>[] }) => Promise<{ results: MutationResult[] }>
-  pull: (teamId: string, since: number, limit: number) => Promise<PullResponse>
-}
-
-export type SyncState = 'idle' | 'syncing' | 'waiting' | 'signed-out' | 'error'
-
-export interface SyncStatus {
-  state: SyncState
-  /** Changes on this phone the server does not have yet. */
-  pending: number
-  /** Conflicts and refusals that wait for the person. */
-  attention: number
-  lastSyncedAt: string | null
-  /** The oldest unsynced change, to warn before a browser evicts old site data. */
-  oldestPendingAt: string | null
-  error: string | null
-  /** A pull of many pages under way (a new phone's first sync): records kept so far of the total. */
-  progress: SyncProgress | null
-}
-
-/** total counts what the server said was left after the latest page; a server that does not say gives received. */
-export interface SyncProgress { teamId: string, received: number, total: number }
-
-/** What the transport throws: a status (0 with no network) decides between retrying and stopping. */
-export interface TransportError { status: number, message: string }
+export type { SyncProgress, SyncState, SyncStatus, SyncTransport, TransportError } from './engine-types'
+export type { SyncEngineOptions } from './engine-types'
 
 class IncompleteAnswer extends Error implements TransportError {
   readonly status = 502
 }
 const isTransportError = (error: unknown): error is TransportError => typeof error === 'object' && error !== null && 'status' in error && typeof error.status === 'number'
 
-/** A record as the server sent it, read with this version's schema; undefined when it cannot be read. */
-export function readServerRecord<E extends EntityName>(entity: E, data: unknown): EntityRecord<E> | undefined {
-  const parsed = recordSchemaOf(entity).safeParse(data)
-  return parsed.success ? parsed.data : undefined
-}
-
-export interface SyncEngineOptions {
-  database: LixiviaDatabase
-  transport: SyncTransport
-  teamIds: () => string[]
-  onStatus?: (status: SyncStatus) => void
-  batchSize?: number
-  pullLimit?: number
-  /** Whether the phone has signal; without it nothing is tried (the 'online' event starts a sync). */
-  isOnline?: () => boolean
-  /** Waits before a retry after a network error or a 5xx (1 s, doubling to 60 s). */
-  schedule?: (retry: () => void, delayMs: number) => void
-}
+export { readServerRecord } from './pull'
 
 function wait(retry: () => void, delayMs: number): void {
   setTimeout(retry, delayMs)
@@ -166,30 +123,6 @@ export function createSyncEngine(options: SyncEngineOptions) {
     }
   }
 
-  /**
-   * Keeps one entity's share of a pulled page, written in one bulkPut. A record with changes of its
-   * own here is settled by its push, never overwritten: those are found on the sync-state index
-   * (a handful at most), not by reading the phone's copy of every record in the page. Returns how
-   * many records this version could not read (they are skipped, not stored).
-   */
-  async function takeAll<E extends EntityName>(entity: E, changes: Change[]): Promise<number> {
-    const table = database.records[entity]
-    const own = new Set(await table.where('sync.state').anyOf(['pending', 'conflict', 'rejected']).primaryKeys())
-    const kept: LocalRecord<E>[] = []
-    let skipped = 0
-    changes.forEach((change) => {
-      if (own.has(change.id))
-        return
-      const record = readServerRecord(entity, change.data)
-      if (record)
-        kept.push(localCopy(record, { state: 'clean', baseRev: record.rev }))
-      else
-        skipped += 1
-    })
-    await table.bulkPut(kept)
-    return skipped
-  }
-
   /** Shows how far a pull of many pages has come (a new phone's first sync), without a full recount. */
   function progress(next: SyncProgress | null): void {
     status = { ...status, progress: next }
@@ -212,20 +145,10 @@ export function createSyncEngine(options: SyncEngineOptions) {
       next = page.hasMore ? transport.pull(teamId, page.cursor, pullLimit) : null
       // A failure of the page asked ahead is met when it is awaited; until then it must not go unhandled.
       next?.catch(() => {})
-      const byEntity = new Map<EntityName, Change[]>()
-      for (const change of page.changes) {
-        // A kind of record a newer server has and this version does not know is passed over.
-        if (!isEntityName(change.entity))
-          continue
-        const list = byEntity.get(change.entity)
-        if (list)
-          list.push(change)
-        else
-          byEntity.set(change.entity, [change])
-      }
+      const byEntity = byEntityOf(page.changes)
       await database.transaction('rw', [database.meta, ...[...byEntity.keys()].map(entity => database.records[entity])], async () => {
         for (const [entity, changes] of byEntity)
-          unreadable += await takeAll(entity, changes)
+          unreadable += await keepPulled(database, entity, changes)
         await database.meta.put({ key: cursorKey, value: page.cursor })
       })
       more = page.hasMore
