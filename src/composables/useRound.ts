@@ -60,7 +60,9 @@ export function useRound(roundId: Ref<string>, teamId: Ref<string | null>) {
     const event = await db.events.get(round.eventId)
     const entries = await db.entries.where('roundId').equals(round.id).toArray()
     const cupIds = new Set(entries.map(entry => entry.id))
-    const brews = await db.brews.where('teamId').equals(teamId.value).filter(brew => brew.context.kind === 'entry' && cupIds.has(brew.context.refId ?? '')).toArray()
+    // The round's pours, found by the cup they were measured for (an index), not among every brew of the team.
+    const team = teamId.value
+    const brews = cupIds.size ? await db.brews.where('context.refId').anyOf([...cupIds]).filter(brew => brew.teamId === team && brew.context.kind === 'entry').toArray() : []
     const readings = brews.length ? await db.readings.where('brewId').anyOf(brews.map(brew => brew.id)).toArray() : []
     const [instruments, calibrations, zeroChecks, signoffs, refused] = await Promise.all([
       db.instruments.where('teamId').equals(teamId.value).toArray(),
